@@ -1,0 +1,37 @@
+# Every target creates .venv on first use, so a fresh machine needs only Python and pip.
+PYTHON ?= python3
+VENV := .venv
+BIN := $(VENV)/bin
+STAMP_RUN := $(VENV)/.installed-run
+STAMP_TEST := $(VENV)/.installed-test
+HOST ?= 127.0.0.1
+PORT ?= 8000
+
+.PHONY: serve test bench browser clean
+
+$(BIN)/python:
+	$(PYTHON) -m venv $(VENV)
+	$(BIN)/pip install --quiet --upgrade pip
+
+$(STAMP_RUN): pyproject.toml | $(BIN)/python
+	$(BIN)/pip install --quiet -e .
+	touch $@
+
+$(STAMP_TEST): pyproject.toml | $(BIN)/python
+	$(BIN)/pip install --quiet -e '.[test]'
+	touch $@ $(STAMP_RUN)
+
+serve: $(STAMP_RUN)
+	$(BIN)/electrosieve serve --host $(HOST) --port $(PORT)
+
+browser:
+	@sh tools/ensure-chromium.sh
+
+test: $(STAMP_TEST) browser
+	$(BIN)/python -m pytest
+
+bench: $(STAMP_TEST)
+	$(BIN)/python bench/run.py
+
+clean:
+	rm -rf $(VENV) build *.egg-info

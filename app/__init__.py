@@ -1,0 +1,1 @@
+"""electrosieve's interfaces: the command line and the web service."""

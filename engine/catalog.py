@@ -1,0 +1,231 @@
+"""Load and validate the data files: species, sources, reference scales, materials.
+
+The built-in catalog lives in ``data/`` (installed as the ``electrosieve_data``
+package); a user's own directory of the same layout may be laid over it.
+Every problem is reported as a :class:`CatalogError` naming the file, the
+entry and the field.
+"""
+
+from dataclasses import dataclass, field
+from functools import lru_cache
+from importlib import resources
+from pathlib import Path
+from typing import Literal
+
+from pydantic import BaseModel, ConfigDict, Field, ValidationError, field_validator
+
+from .datafiles import describe, read_toml, validate_rows, validate_table
+from .errors import CatalogError
+from .lint import check_catalog
+from .materials import load_materials
+from .formula import FormulaError, parse_formula
+from .species import PHASES, Species
+
+WATER_FILE = "water.toml"
+"""Species file holding H2O, H+, OH-, H2 and O2 (the solvent and its ions)."""
+
+
+class _Strict(BaseModel):
+    model_config = ConfigDict(extra="forbid", strict=True)
+
+
+class SpeciesRow(_Strict):
+    """One ``[[species]]`` row of a species file."""
+
+    formula: str
+    charge: int
+    phase: Literal[PHASES]  # type: ignore[valid-type]
+    dgf: float = Field(description="standard Gibbs energy of formation at 298.15 K [kJ/mol]")
+    source: str
+    dhf: float | None = Field(None, description="standard enthalpy of formation at 298.15 K [kJ/mol]")
+    s: float | None = Field(None, description="standard (conventional) entropy at 298.15 K [J/(mol K)]")
+    cp: float | None = Field(None, description="standard heat capacity at 298.15 K [J/(mol K)]")
+    uncertainty: float | None = Field(None, ge=0, description="uncertainty of dgf [kJ/mol]")
+    from_memory: bool | None = None
+    label: str | None = None
+    note: str = ""
+
+    @field_validator("dgf", "dhf", "s", "cp", mode="before")
+    @classmethod
+    def _int_is_a_number(cls, value):
+        if isinstance(value, int) and not isinstance(value, bool):
+            return float(value)
+        return value
+
+    @field_validator("formula")
+    @classmethod
+    def _formula_parses(cls, value: str) -> str:
+        try:
+            parse_formula(value)
+        except FormulaError as error:
+            raise ValueError(str(error)) from None
+        return value
+
+
+class SpeciesFile(_Strict):
+    """A species file: one element system (or the water file)."""
+
+    element: str
+    from_memory: bool = False
+    note: str = ""
+    species: list[SpeciesRow] = Field(min_length=1)
+
+
+class SourceRow(_Strict):
+    """One bibliography entry of ``sources.toml``."""
+
+    authors: str
+    title: str
+    year: int
+    publication: str = ""
+    table: str = ""
+    doi: str = ""
+    url: str = ""
+    note: str = ""
+
+
+class ScaleRow(_Strict):
+    """One reference electrode of ``scales.toml``."""
+
+    name: str
+    potential: float = Field(description="potential vs SHE at 25 °C [V]; 0 for the pH-dependent RHE")
+    source: str
+    ph_dependent: bool = False
+    dE_dT: float = Field(0.0, description="temperature coefficient [V/K]")
+    t_min: float = Field(0.0, description="lowest temperature of validity [°C]")
+    t_max: float = Field(150.0, description="highest temperature of validity [°C]")
+    from_memory: bool = False
+    note: str = ""
+
+    @field_validator("potential", "dE_dT", "t_min", "t_max", mode="before")
+    @classmethod
+    def _int_is_a_number(cls, value):
+        if isinstance(value, int) and not isinstance(value, bool):
+            return float(value)
+        return value
+
+
+@dataclass(frozen=True)
+class ElementSystem:
+    """All species of one element, in file order."""
+
+    element: str
+    species: tuple[Species, ...]
+    path: str = ""
+
+    def find(self, name: str) -> Species:
+        """The species called ``name`` (as shown to users), case-sensitive."""
+        for candidate in self.species:
+            if candidate.name == name:
+                return candidate
+        known = ", ".join(s.name for s in self.species)
+        raise CatalogError(f"{self.element} has no species {name!r}; known: {known}", field="species")
+
+
+@dataclass(frozen=True, eq=False)
+class Catalog:
+    """Everything loaded from a data directory (compared and hashed by identity, so it can key caches)."""
+
+    systems: dict[str, ElementSystem]
+    water: dict[str, Species]
+    sources: dict[str, SourceRow]
+    scales: dict[str, ScaleRow]
+    materials: dict = field(default_factory=dict)
+    raw_materials: dict = field(default_factory=dict)
+    version: str = ""
+
+    def system(self, element: str) -> ElementSystem:
+        """The element system for ``element`` (case-insensitive), or a clear error listing the known ones."""
+        for symbol, system in self.systems.items():
+            if symbol.lower() == str(element).lower():
+                return system
+        known = ", ".join(sorted(self.systems))
+        raise CatalogError(f"unknown element {element!r}; known elements: {known}", field="element")
+
+
+def load_species_file(path: Path) -> SpeciesFile:
+    """Read and validate one species file."""
+    document = read_toml(path)
+    rows = validate_rows(path, document.pop("species", []), SpeciesRow, "species")
+    try:
+        return SpeciesFile.model_validate({**document, "species": rows})
+    except ValidationError as error:
+        raise CatalogError(describe(error, path, "file header")) from None
+
+
+def _to_system(path: Path, parsed: SpeciesFile) -> ElementSystem:
+    species = []
+    for index, row in enumerate(parsed.species):
+        values = row.model_dump()
+        if values["from_memory"] is None:
+            values["from_memory"] = parsed.from_memory
+        species.append(Species.create(parsed.element, **values))
+    return ElementSystem(element=parsed.element, species=tuple(species), path=str(path))
+
+
+def _load_table(path: Path, model: type[BaseModel], entry_word: str) -> dict:
+    return validate_table(path, read_toml(path), model, entry_word)
+
+
+def builtin_data_dir() -> Path:
+    """The built-in ``data/`` directory (from the checkout or the installed wheel)."""
+    return Path(str(resources.files("electrosieve_data")))
+
+
+def load_catalog(data_dir: Path | None = None, overlay: Path | None = None) -> Catalog:
+    """Load a catalog from ``data_dir`` (built-in by default), with ``overlay``'s species files laid over it.
+
+    A species file in ``overlay`` replaces the built-in system of the same
+    element or adds a new one; the built-in files are never changed.
+    """
+    base = Path(data_dir) if data_dir else builtin_data_dir()
+    if overlay is not None:
+        overlay = Path(overlay)
+        if not overlay.is_dir():
+            raise CatalogError(f"--data {overlay}: not a directory", field="data")
+    sources = _load_table(base / "sources.toml", SourceRow, "source")
+    scales = _load_table(base / "scales.toml", ScaleRow, "scale")
+    species_files = {path.name: path for path in sorted((base / "species").glob("*.toml"))}
+    if overlay is not None:
+        extra = sorted((overlay / "species").glob("*.toml")) + sorted(overlay.glob("*.toml"))
+        if (overlay / "sources.toml").exists():
+            sources = {**sources, **_load_table(overlay / "sources.toml", SourceRow, "source")}
+        extra = [path for path in extra if path.name not in ("sources.toml", "scales.toml", "materials.toml")]
+        if not extra:
+            raise CatalogError(f"--data {overlay}: no species files (*.toml) found", field="data")
+        for path in extra:
+            species_files[path.name] = path
+    systems: dict[str, ElementSystem] = {}
+    water: dict[str, Species] = {}
+    for name, path in species_files.items():
+        parsed = load_species_file(path)
+        system = _to_system(path, parsed)
+        if name == WATER_FILE:
+            water = {s.name: s for s in system.species}
+        else:
+            systems[parsed.element] = system
+    catalog = Catalog(systems=systems, water=water, sources=sources, scales=scales)
+    check_catalog(catalog)
+    materials_path = base / "materials.toml"
+    if materials_path.exists():
+        materials = load_materials(materials_path, catalog)
+        catalog = Catalog(systems=systems, water=water, sources=sources, scales=scales, materials=materials)
+    return _with_version(catalog, base, species_files)
+
+
+def _with_version(catalog: Catalog, base: Path, species_files: dict[str, Path]) -> Catalog:
+    """Stamp the catalog with a short digest of every data file it was built from."""
+    import hashlib
+
+    digest = hashlib.sha256()
+    for path in [base / "sources.toml", base / "scales.toml", base / "materials.toml", *species_files.values()]:
+        if path.exists():
+            digest.update(path.name.encode())
+            digest.update(path.read_bytes())
+    return Catalog(**{**catalog.__dict__, "version": digest.hexdigest()[:12]})
+
+
+@lru_cache(maxsize=1)
+def default_catalog() -> Catalog:
+    """The built-in catalog, loaded once per process."""
+    return load_catalog()

@@ -1,0 +1,126 @@
+"""The E–pH diagram of one element: domains, boundaries and water lines, and what is stable at a point.
+
+This is the engine's front door: it checks the inputs, builds the free-energy
+planes (``planes``), computes the exact domains (``domains``) and caches the
+result per (element, activity, temperature, window).
+"""
+
+import math
+from dataclasses import dataclass
+from functools import lru_cache
+
+from .catalog import Catalog, ElementSystem, default_catalog
+from .constants import ZERO_CELSIUS
+from .domains import Boundary, Domain, Window, boundaries, stability_domains, stable_index_at
+from .errors import InputError
+from .planes import Planes, build_planes
+from .species import Species
+from .thermo import formation_gibbs
+from .water import WaterLines, water_lines
+
+DEFAULT_ACTIVITY = 1e-6
+"""Activity of every dissolved species: 10^-6, the usual corrosion convention (Pourbaix 1966, ch. 3) [common practice]."""
+
+ACTIVITY_RANGE = (1e-8, 1.0)
+"""Allowed dissolved-species activities."""
+
+TEMPERATURE_RANGE_C = (0.0, 150.0)
+"""Allowed temperatures [°C]: liquid water at or above its saturation pressure."""
+
+
+@dataclass(frozen=True)
+class Diagram:
+    """An element's exact E–pH diagram under given conditions."""
+
+    element: str
+    activity: float
+    temperature_c: float
+    window: Window
+    planes: Planes
+    domains: tuple[Domain, ...]
+    boundaries: tuple[Boundary, ...]
+    water: WaterLines
+
+    def stable_species_at(self, ph: float, potential: float) -> Species:
+        """The species of lowest Φ at (pH, E [V vs SHE])."""
+        return self.planes.species[stable_index_at(self.planes, ph, potential)]
+
+
+def check_number(value, field: str, low: float | None = None, high: float | None = None, what: str = "") -> float:
+    """``value`` as a finite float within [low, high], or an :class:`InputError` naming ``field``."""
+    if isinstance(value, bool) or not isinstance(value, (int, float)):
+        raise InputError(f"{field} must be a number (given {value!r})", field=field)
+    value = float(value)
+    if not math.isfinite(value):
+        raise InputError(f"{field} must be a finite number (given {value!r})", field=field)
+    if (low is not None and value < low) or (high is not None and value > high):
+        raise InputError(f"{field} must be between {low:g} and {high:g}{what} (given {value:g})", field=field)
+    return value
+
+
+def check_activity(activity) -> float:
+    """The dissolved-species activity, checked against :data:`ACTIVITY_RANGE`."""
+    return check_number(activity, "activity", *ACTIVITY_RANGE)
+
+
+def check_temperature(temperature_c) -> float:
+    """The temperature [°C], checked against :data:`TEMPERATURE_RANGE_C`."""
+    return check_number(temperature_c, "temperature", *TEMPERATURE_RANGE_C, what=" °C")
+
+
+def check_window(window: Window) -> Window:
+    """The plot window with finite, increasing limits."""
+    for name in ("ph_min", "ph_max", "e_min", "e_max"):
+        check_number(getattr(window, name), name, -1e3, 1e3)
+    if window.ph_min >= window.ph_max:
+        raise InputError(f"pH window is empty or inverted ({window.ph_min:g} to {window.ph_max:g})", field="ph_min")
+    if window.e_min >= window.e_max:
+        raise InputError(f"potential window is empty or inverted ({window.e_min:g} to {window.e_max:g})", field="e_min")
+    return window
+
+
+def water_gibbs(catalog: Catalog, temperature_k: float) -> float:
+    """ΔGf°(H2O, l) [kJ/mol] at ``temperature_k`` [K] from the water file."""
+    return formation_gibbs(catalog.water["H2O"], temperature_k)
+
+
+def planes_for(system: ElementSystem, catalog: Catalog, activity: float, temperature_c: float) -> Planes:
+    """The free-energy planes of every species of ``system``."""
+    temperature_k = temperature_c + ZERO_CELSIUS
+    return build_planes(system.species, water_gibbs(catalog, temperature_k), activity, temperature_k)
+
+
+def diagram(element: str, activity: float = DEFAULT_ACTIVITY, temperature_c: float = 25.0,
+            window: Window = Window(), catalog: Catalog | None = None) -> Diagram:
+    """The exact E–pH diagram of ``element`` at ``activity`` and ``temperature_c`` [°C] within ``window``.
+
+    >>> d = diagram("Zn")
+    >>> sorted({dom.region for dom in d.domains})
+    ['corrosion', 'immunity', 'passivation']
+    """
+    catalog = catalog or default_catalog()
+    system = catalog.system(element)
+    return _cached_diagram(catalog, system.element, check_activity(activity),
+                           check_temperature(temperature_c), check_window(window))
+
+
+@lru_cache(maxsize=512)
+def _cached_diagram(catalog: Catalog, element: str, activity: float, temperature_c: float,
+                    window: Window) -> Diagram:
+    system = catalog.systems[element]
+    planes = planes_for(system, catalog, activity, temperature_c)
+    domains = stability_domains(planes, window)
+    temperature_k = temperature_c + ZERO_CELSIUS
+    return Diagram(
+        element=element, activity=activity, temperature_c=temperature_c, window=window, planes=planes,
+        domains=tuple(domains), boundaries=tuple(boundaries(planes, domains)),
+        water=water_lines(water_gibbs(catalog, temperature_k), temperature_k),
+    )
+
+
+def check_point(window: Window, ph, potential) -> tuple[float, float]:
+    """A (pH, E vs SHE) point, checked to lie inside ``window``."""
+    ph = check_number(ph, "ph", window.ph_min, window.ph_max, " (the diagram's pH window)")
+    potential = check_number(potential, "potential", window.e_min, window.e_max, " V vs SHE (the diagram's window)")
+    return ph, potential
+

@@ -1,0 +1,100 @@
+"""Convex polygons in the (pH, E) plane: clipping by half-planes, area, containment.
+
+A polygon is an (n, 2) array of vertices in counter-clockwise order with, for
+each edge k (from vertex k to vertex k+1), an integer label saying which line
+made it: the index of the competing species, or a negative number for the
+window's own edges. Clipping a convex polygon by a half-plane keeps it convex
+(Sutherland & Hodgman, Commun. ACM 17, 32, 1974).
+"""
+
+import numpy as np
+
+EPS = 1e-12
+"""Tolerance on a half-plane's value below which a vertex counts as on the line."""
+
+WINDOW_EDGE = -1
+"""Label of an edge that belongs to the plot or operating window."""
+
+
+def rectangle(x_min: float, x_max: float, y_min: float, y_max: float) -> tuple[np.ndarray, np.ndarray]:
+    """The rectangle [x_min, x_max] × [y_min, y_max], counter-clockwise, with window labels."""
+    vertices = np.array([[x_min, y_min], [x_max, y_min], [x_max, y_max], [x_min, y_max]], dtype=float)
+    return vertices, np.full(4, WINDOW_EDGE, dtype=int)
+
+
+def clip(vertices: np.ndarray, labels: np.ndarray, a: float, b: float, c: float,
+         label: int) -> tuple[np.ndarray, np.ndarray]:
+    """Keep the part of a convex polygon where a + b·x + c·y ≤ 0; new edges get ``label``.
+
+    >>> v, l = rectangle(0, 2, 0, 2)
+    >>> v, l = clip(v, l, -1.0, 1.0, 0.0, 7)   # keep x <= 1
+    >>> area(v)
+    2.0
+    """
+    if len(vertices) == 0:
+        return vertices, labels
+    values = a + b * vertices[:, 0] + c * vertices[:, 1]
+    scale = EPS * max(1.0, abs(a), abs(b), abs(c))
+    inside = values <= scale
+    if inside.all():
+        return vertices, labels
+    if not inside.any():
+        return vertices[:0], labels[:0]
+    out_vertices, out_labels = [], []
+    n = len(vertices)
+    for k in range(n):
+        j = (k + 1) % n
+        if inside[k]:
+            out_vertices.append(vertices[k])
+            out_labels.append(labels[k])
+            if not inside[j]:
+                t = values[k] / (values[k] - values[j])
+                out_vertices.append(vertices[k] + t * (vertices[j] - vertices[k]))
+                out_labels.append(label)
+        elif inside[j]:
+            t = values[k] / (values[k] - values[j])
+            out_vertices.append(vertices[k] + t * (vertices[j] - vertices[k]))
+            out_labels.append(labels[k])
+    return _drop_repeats(np.array(out_vertices), np.array(out_labels, dtype=int))
+
+
+def _drop_repeats(vertices: np.ndarray, labels: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+    """Remove zero-length edges left where a clip line passed through a vertex."""
+    if len(vertices) < 2:
+        return vertices, labels
+    following = np.roll(vertices, -1, axis=0)
+    keep = np.linalg.norm(following - vertices, axis=1) > 1e-12
+    if keep.all():
+        return vertices, labels
+    return vertices[keep], labels[keep]
+
+
+def area(vertices: np.ndarray) -> float:
+    """Area of a simple polygon by the shoelace formula (positive when counter-clockwise).
+
+    >>> area(rectangle(0, 3, 0, 2)[0])
+    6.0
+    """
+    if len(vertices) < 3:
+        return 0.0
+    x, y = vertices[:, 0], vertices[:, 1]
+    return float(0.5 * (np.dot(x, np.roll(y, -1)) - np.dot(y, np.roll(x, -1))))
+
+
+def contains(vertices: np.ndarray, x: float, y: float, tolerance: float = 1e-9) -> bool:
+    """True when (x, y) lies inside or on a counter-clockwise convex polygon."""
+    if len(vertices) < 3:
+        return False
+    following = np.roll(vertices, -1, axis=0)
+    cross = (following[:, 0] - vertices[:, 0]) * (y - vertices[:, 1]) - (following[:, 1] - vertices[:, 1]) * (x - vertices[:, 0])
+    return bool((cross >= -tolerance).all())
+
+
+def is_convex(vertices: np.ndarray, tolerance: float = 1e-9) -> bool:
+    """True when a counter-clockwise polygon turns left (or goes straight) at every vertex."""
+    if len(vertices) < 3:
+        return False
+    edges = np.roll(vertices, -1, axis=0) - vertices
+    following = np.roll(edges, -1, axis=0)
+    cross = edges[:, 0] * following[:, 1] - edges[:, 1] * following[:, 0]
+    return bool((cross >= -tolerance).all())

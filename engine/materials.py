@@ -1,0 +1,84 @@
+"""Candidate electrode materials: an element system plus the phase put in the cell, with practical metadata."""
+
+from dataclasses import dataclass
+from pathlib import Path
+from typing import Literal
+
+from pydantic import BaseModel, ConfigDict, Field
+
+from .datafiles import read_toml, validate_rows
+from .errors import CatalogError
+
+FAMILIES = ("noble", "platinum-group", "transition", "valve metal", "post-transition", "carbon", "oxide")
+"""Families a material may belong to."""
+
+
+class HazardRow(BaseModel):
+    """A dissolved species a lab safety officer would flag, with the reason."""
+
+    model_config = ConfigDict(extra="forbid", strict=True)
+    species: str
+    note: str
+
+
+class MaterialRow(BaseModel):
+    """One ``[[material]]`` row of ``materials.toml``."""
+
+    model_config = ConfigDict(extra="forbid", strict=True)
+    id: str = Field(pattern=r"^[A-Za-z][A-Za-z0-9_-]*$")
+    name: str
+    element: str
+    phase: str = Field(description="the species (name as in the species file) put in the cell")
+    family: Literal[FAMILIES]  # type: ignore[valid-type]
+    price_usd_per_kg: float | None = None
+    price_year: int | None = None
+    price_source: str | None = None
+    abundance_mg_per_kg: float | None = None
+    abundance_source: str | None = None
+    hazards: list[HazardRow] = []
+    from_memory: bool = False
+    note: str = ""
+
+
+@dataclass(frozen=True)
+class Material:
+    """A candidate the user can pick; ``phase`` is the species it is made of."""
+
+    id: str
+    name: str
+    element: str
+    phase: str
+    family: str
+    price_usd_per_kg: float | None
+    price_year: int | None
+    price_source: str | None
+    abundance_mg_per_kg: float | None
+    abundance_source: str | None
+    hazards: tuple[HazardRow, ...]
+    from_memory: bool
+    note: str
+
+
+def load_materials(path: Path, catalog) -> dict[str, Material]:
+    """Read ``materials.toml`` and check each row against ``catalog`` (element, phase, source keys)."""
+    document = read_toml(path)
+    rows = validate_rows(path, document.get("material", []), MaterialRow, "material")
+    materials: dict[str, Material] = {}
+    for row in rows:
+        where = f"{path}: material {row.id!r}"
+        if row.id.lower() in {key.lower() for key in materials}:
+            raise CatalogError(f"{where}: field 'id': appears twice (ids are case-insensitive)")
+        if row.element not in catalog.systems:
+            raise CatalogError(f"{where}: field 'element': no species file for {row.element!r}")
+        names = {s.name for s in catalog.systems[row.element].species}
+        if row.phase not in names:
+            raise CatalogError(f"{where}: field 'phase': {row.phase!r} is not a species of {row.element}")
+        for key_field in ("price_source", "abundance_source"):
+            key = getattr(row, key_field)
+            if key is not None and key not in catalog.sources:
+                raise CatalogError(f"{where}: field {key_field!r}: unknown source key {key!r}")
+        for hazard in row.hazards:
+            if hazard.species not in names:
+                raise CatalogError(f"{where}: field 'hazards': {hazard.species!r} is not a species of {row.element}")
+        materials[row.id] = Material(**{**row.model_dump(), "hazards": tuple(row.hazards)})
+    return materials

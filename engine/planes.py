@@ -1,0 +1,60 @@
+"""Free-energy planes: each species' Gibbs energy per metal atom as a linear function of pH and E.
+
+For a species M_m H_h O_o^z formed by m M + o H2O -> species + (2o-h) H+ + (2o-h+z) e-,
+
+    Φ(pH, E) = [ΔGf° − o·ΔGf°(H2O) + RT ln a − (2o − h)·RT ln10·pH − (2o − h + z)·F·E] / m
+
+in eV per metal atom (Pourbaix 1966, Atlas, ch. 2, eq. 1-3 rewritten per atom).
+Solids, liquids and gases are at unit activity (gases at 1 bar); dissolved
+species at the activity ``a``.
+"""
+
+from dataclasses import dataclass
+
+import numpy as np
+
+from .constants import KJ_PER_EV, T_STANDARD, nernst_slope, thermal_voltage
+from .species import Species
+from .thermo import formation_gibbs
+
+
+@dataclass(frozen=True)
+class Planes:
+    """Coefficients of Φ_i = offset_i + ph_slope_i·pH + e_slope_i·E [eV per metal atom] for each species i."""
+
+    species: tuple[Species, ...]
+    offset: np.ndarray
+    ph_slope: np.ndarray
+    e_slope: np.ndarray
+
+    def at(self, ph: float, potential: float) -> np.ndarray:
+        """Φ of every species at one point (pH, E vs SHE [V])."""
+        return self.offset + self.ph_slope * ph + self.e_slope * potential
+
+
+def build_planes(species: tuple[Species, ...], water_gibbs: float, activity: float,
+                 temperature_k: float = T_STANDARD) -> Planes:
+    """Planes for ``species`` with dissolved species at ``activity``.
+
+    ``water_gibbs`` is ΔGf°(H2O, l) [kJ/mol] at ``temperature_k`` [K].
+
+    >>> from engine.species import Species
+    >>> zinc = Species.create("Zn", formula="Zn", charge=0, phase="solid", dgf=0.0, source="x")
+    >>> ion = Species.create("Zn", formula="Zn", charge=2, phase="aqueous", dgf=-147.06, source="x")
+    >>> p = build_planes((zinc, ion), -237.129, 1.0)
+    >>> round(float(-p.offset[1] / p.e_slope[1]), 4)   # E° of Zn2+/Zn [V]
+    -0.7621
+    """
+    kt = thermal_voltage(temperature_k)
+    slope = nernst_slope(temperature_k)
+    log_activity = np.log(activity)
+    offset, ph_slope, e_slope = [], [], []
+    for s in species:
+        m = s.metal_atoms
+        energy = (formation_gibbs(s, temperature_k) - s.oxygen_atoms * water_gibbs) / KJ_PER_EV
+        if s.is_dissolved:
+            energy += kt * log_activity
+        offset.append(energy / m)
+        ph_slope.append(-s.protons_released * slope / m)
+        e_slope.append(-s.electrons_released / m)
+    return Planes(tuple(species), np.array(offset), np.array(ph_slope), np.array(e_slope))

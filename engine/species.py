@@ -1,0 +1,105 @@
+"""A species of an element system and its formation reaction.
+
+Every species M_m H_h O_o^z of element M is formed from the metal, water,
+hydrogen ions and electrons:
+
+    m M + o H2O  ->  M_m H_h O_o^z + (2o - h) H+ + (2o - h + z) e-
+
+so its molar Gibbs energy relative to the metal is linear in pH and E
+(Pourbaix 1966, Atlas of Electrochemical Equilibria, ch. 2).
+"""
+
+from dataclasses import dataclass, field
+
+from .formula import ion_name, parse_formula
+
+PHASES = ("solid", "liquid", "aqueous", "gas")
+"""Phases a species may have."""
+
+DISSOLVED_PHASES = ("aqueous",)
+"""Phases at the user's dissolved-ion activity; the others are pure phases at unit activity."""
+
+# Elements of the solvent that may accompany the metal in a species.
+SOLVENT_ELEMENTS = ("H", "O")
+
+
+@dataclass(frozen=True)
+class Species:
+    """One species with its standard data at 298.15 K.
+
+    ``dgf`` and ``dhf`` [kJ/mol], ``s`` and ``cp`` [J/(mol K)], ``uncertainty``
+    [kJ/mol, on ``dgf``]; ``source`` is a key of ``data/sources.toml``.
+    """
+
+    element: str
+    formula: str
+    charge: int
+    phase: str
+    dgf: float
+    source: str
+    dhf: float | None = None
+    s: float | None = None
+    cp: float | None = None
+    uncertainty: float | None = None
+    from_memory: bool = False
+    label: str | None = None
+    note: str = ""
+    composition: dict[str, int] = field(default_factory=dict, compare=False, hash=False)
+
+    @classmethod
+    def create(cls, element: str, **values) -> "Species":
+        """Build a species and read its composition from the formula."""
+        return cls(element=element, composition=parse_formula(values["formula"]), **values)
+
+    @property
+    def name(self) -> str:
+        """The species' name as shown to users: formula with charge, or its label.
+
+        >>> Species.create("Zn", formula="Zn", charge=2, phase="aqueous", dgf=-147.1, source="x").name
+        'Zn^2+'
+        """
+        return self.label or ion_name(self.formula, self.charge)
+
+    @property
+    def metal_atoms(self) -> int:
+        """m: atoms of the system's element in one formula unit."""
+        return self.composition.get(self.element, 0)
+
+    @property
+    def hydrogen_atoms(self) -> int:
+        """h: hydrogen atoms in one formula unit (0 for the hydrogen-free species)."""
+        return self.composition.get("H", 0) if self.element != "H" else 0
+
+    @property
+    def oxygen_atoms(self) -> int:
+        """o: oxygen atoms in one formula unit."""
+        return self.composition.get("O", 0) if self.element != "O" else 0
+
+    @property
+    def protons_released(self) -> int:
+        """2o - h: hydrogen ions released when the species forms from M and H2O."""
+        return 2 * self.oxygen_atoms - self.hydrogen_atoms
+
+    @property
+    def electrons_released(self) -> int:
+        """2o - h + z: electrons released when the species forms from M and H2O."""
+        return self.protons_released + self.charge
+
+    @property
+    def is_dissolved(self) -> bool:
+        """True for species held at the user's dissolved activity."""
+        return self.phase in DISSOLVED_PHASES
+
+    @property
+    def is_element(self) -> bool:
+        """True for the element itself (the metal, liquid mercury, graphite)."""
+        return self.composition == {self.element: self.metal_atoms} and self.charge == 0 and not self.is_dissolved
+
+    @property
+    def region(self) -> str:
+        """The corrosion-diagram region: immunity, passivation or corrosion (Pourbaix 1966, ch. 3)."""
+        if self.is_element:
+            return "immunity"
+        if self.is_dissolved or self.phase == "gas":
+            return "corrosion"
+        return "passivation"
