@@ -1,0 +1,230 @@
+"""The ``electrosieve`` command line: diagrams, point queries, scale conversion, catalog listings, screening, serving.
+
+Every command accepts ``--json`` for machine-readable output and ``--data DIR``
+to lay a user's own species files over the built-in catalog. Errors are one
+readable line on stderr and a non-zero exit (2 for bad input), never a traceback.
+"""
+
+import argparse
+import json
+import sys
+from pathlib import Path
+
+from engine.catalog import Catalog, default_catalog, load_catalog
+from engine.diagram import DEFAULT_ACTIVITY, Window, check_point, check_temperature, diagram
+from engine.errors import ElectrosieveError, InputError
+from engine.scales import canonical_scale, convert, needs_ph, to_she
+
+from . import payloads
+
+EXIT_BAD_INPUT = 2
+EXIT_INTERNAL = 1
+
+
+class UsageError(Exception):
+    """A command line that argparse rejected."""
+
+
+class _Parser(argparse.ArgumentParser):
+    def error(self, message):  # argparse calls this on bad usage
+        raise UsageError(f"{self.prog}: {message}")
+
+
+def parse_range(text: str, field: str) -> tuple[float, float]:
+    """``"A:B"`` → (A, B); ``"A"`` → (A, A). Negative numbers work: ``--potential=-0.5:-0.2``."""
+    parts = str(text).split(":")
+    if len(parts) not in (1, 2) or not all(p.strip() for p in parts):
+        raise InputError(f"{field} must be a number or a range A:B (given {text!r})", field=field)
+    try:
+        values = [float(p) for p in parts]
+    except ValueError:
+        raise InputError(f"{field} must be a number or a range A:B of numbers (given {text!r})", field=field) from None
+    low, high = values[0], values[-1]
+    return low, high
+
+
+def _number(text: str, field: str) -> float:
+    try:
+        return float(text)
+    except (TypeError, ValueError):
+        raise InputError(f"{field} must be a number (given {text!r})", field=field) from None
+
+
+def _catalog(args) -> Catalog:
+    return load_catalog(overlay=Path(args.data)) if getattr(args, "data", None) else default_catalog()
+
+
+def _window(args) -> Window:
+    ph = parse_range(args.window_ph, "--window-ph")
+    e = parse_range(args.window_potential, "--window-potential")
+    return Window(ph_min=ph[0], ph_max=ph[1], e_min=e[0], e_max=e[1])
+
+
+def _emit(args, payload, human) -> None:
+    if args.json:
+        print(json.dumps(payload, indent=2, ensure_ascii=False))
+    else:
+        human(payload)
+
+
+def _console():
+    from rich.console import Console
+
+    return Console()
+
+
+def cmd_diagram(args) -> None:
+    catalog = _catalog(args)
+    result = diagram(args.element, _number(args.activity, "--activity"), check_temperature(_number(args.temperature, "--temperature")),
+                     _window(args), catalog=catalog)
+    payload = payloads.diagram_payload(result, catalog)
+    if args.out:
+        from .figures import diagram_figure, write_figure
+
+        try:
+            write_figure(diagram_figure(payload), args.out)
+        except ValueError as error:
+            raise InputError(str(error), field="--out") from None
+        except Exception as error:  # image export needs kaleido and Chromium
+            raise InputError(f"could not write {args.out}: {error}", field="--out") from None
+    _emit(args, payload, _print_diagram)
+
+
+def _print_diagram(payload: dict) -> None:
+    from rich.table import Table
+
+    console = _console()
+    table = Table(title=f"{payload['element']}: stability domains (activity {payload['activity']:g}, "
+                        f"{payload['temperature_c']:g} °C; E vs SHE)")
+    for column in ("species", "phase", "region", "area / pH·V"):
+        table.add_column(column)
+    for d in payload["domains"]:
+        table.add_row(d["formula"], d["phase"], d["region"], f"{d['area']:.3f}")
+    console.print(table)
+    lines = Table(title="boundaries")
+    lines.add_column("between")
+    lines.add_column("line (V vs SHE)")
+    for b in payload["boundaries"]:
+        lines.add_row(" | ".join(b["species"]), b["equation"])
+    lines.add_row("H2/H2O (1 bar)", payload["water"]["hydrogen"]["equation"])
+    lines.add_row("O2/H2O (1 bar)", payload["water"]["oxygen"]["equation"])
+    console.print(lines)
+
+
+def cmd_point(args) -> None:
+    catalog = _catalog(args)
+    temperature = check_temperature(_number(args.temperature, "--temperature"))
+    ph = _number(args.ph, "--ph")
+    potential = _number(args.potential, "--potential")
+    result = diagram(args.element, _number(args.activity, "--activity"), temperature, _window(args), catalog=catalog)
+    scale = canonical_scale(catalog.scales, args.scale)
+    potential_she = to_she(catalog.scales, potential, scale, ph, temperature + 273.15)
+    check_point(result.window, ph, potential_she)
+    payload = payloads.point_payload(result, ph, potential, potential_she, scale)
+    _emit(args, payload, lambda p: print(
+        f"{p['element']} at pH {p['ph']:g}, {p['potential']:g} V vs {p['scale']} ({p['potential_she']:.3f} V vs SHE): "
+        f"{p['formula']} ({p['phase']}) - {p['region']}"))
+
+
+def cmd_convert(args) -> None:
+    catalog = _catalog(args)
+    temperature = check_temperature(_number(args.temperature, "--temperature"))
+    value = _number(args.value, "VALUE")
+    source = canonical_scale(catalog.scales, args.source)
+    target = canonical_scale(catalog.scales, args.target)
+    ph = None if args.ph is None else _number(args.ph, "--ph")
+    if ph is None and (needs_ph(catalog.scales, source) or needs_ph(catalog.scales, target)):
+        raise InputError("converting to or from the RHE needs --ph", field="--ph")
+    result = convert(catalog.scales, value, source, target, ph, temperature + 273.15)
+    payload = {"value": round(result, 9), "scale": target, "input": {"value": value, "scale": source, "ph": ph,
+                                                                     "temperature_c": temperature}}
+    _emit(args, payload, lambda p: print(f"{value:g} V vs {source} = {p['value']:.4f} V vs {target}"))
+
+
+def cmd_scales(args) -> None:
+    catalog = _catalog(args)
+    payload = payloads.scales_payload(catalog)
+
+    def human(rows):
+        from rich.table import Table
+
+        table = Table(title="reference scales (potential vs SHE at 25 °C)")
+        for column in ("id", "electrode", "E vs SHE / V", "source"):
+            table.add_column(column)
+        for row in rows:
+            shown = "0 - 0.0592·pH" if row["ph_dependent"] else f"{row['potential_vs_she']:+.4f}"
+            table.add_row(row["id"], row["name"], shown, row["source"])
+        _console().print(table)
+
+    _emit(args, payload, human)
+
+
+def build_parser() -> argparse.ArgumentParser:
+    parser = _Parser(prog="electrosieve", description=__doc__.splitlines()[0])
+    commands = parser.add_subparsers(dest="command", required=True, parser_class=_Parser)
+
+    def common(sub, window=True):
+        sub.add_argument("--json", action="store_true", help="print JSON instead of a table")
+        sub.add_argument("--data", metavar="DIR", help="a directory of your own species files laid over the built-in catalog")
+        if window:
+            sub.add_argument("--activity", default=str(DEFAULT_ACTIVITY), help="activity of dissolved species (1e-8 to 1; default 1e-6)")
+            sub.add_argument("--temperature", default="25", help="temperature in °C (default 25)")
+            sub.add_argument("--window-ph", default="-2:16", metavar="A:B", help="pH range of the diagram (default -2:16)")
+            sub.add_argument("--window-potential", default="-3:3", metavar="X:Y", help="potential range vs SHE [V] (default -3:3)")
+
+    sub = commands.add_parser("diagram", help="the exact E-pH diagram of one element")
+    sub.add_argument("element")
+    sub.add_argument("--out", metavar="FILE", help="also write the figure: .svg, .png or .html")
+    common(sub)
+    sub.set_defaults(handler=cmd_diagram)
+
+    sub = commands.add_parser("point", help="the stable species at one pH and potential")
+    sub.add_argument("element")
+    sub.add_argument("--ph", required=True)
+    sub.add_argument("--potential", required=True, help="potential [V] on --scale (use --potential=-0.5 for negatives)")
+    sub.add_argument("--scale", default="SHE", help="reference scale of --potential (see `electrosieve scales`)")
+    common(sub)
+    sub.set_defaults(handler=cmd_point)
+
+    sub = commands.add_parser("convert", help="convert a potential between reference scales")
+    sub.add_argument("value")
+    sub.add_argument("--from", dest="source", required=True)
+    sub.add_argument("--to", dest="target", required=True)
+    sub.add_argument("--ph", help="pH (needed for the RHE)")
+    sub.add_argument("--temperature", default="25", help="temperature in °C (default 25)")
+    common(sub, window=False)
+    sub.set_defaults(handler=cmd_convert)
+
+    sub = commands.add_parser("scales", help="list the reference scales")
+    common(sub, window=False)
+    sub.set_defaults(handler=cmd_scales)
+    return parser
+
+
+def main(argv: list[str] | None = None) -> int:
+    """Run one command; return its exit code (0 ok, 2 bad input, 1 unexpected failure)."""
+    parser = build_parser()
+    try:
+        args = parser.parse_args(argv)
+        args.handler(args)
+        return 0
+    except UsageError as error:
+        print(f"error: {error}", file=sys.stderr)
+        return EXIT_BAD_INPUT
+    except ElectrosieveError as error:
+        print(f"error: {error}", file=sys.stderr)
+        return EXIT_BAD_INPUT
+    except BrokenPipeError:
+        return 0
+    except Exception as error:  # last resort: never show a traceback to a user
+        print(f"error: unexpected failure ({type(error).__name__}: {error}); please report it", file=sys.stderr)
+        return EXIT_INTERNAL
+
+
+def run() -> None:
+    """Console-script entry point."""
+    sys.exit(main())
+
+
+if __name__ == "__main__":
+    run()

@@ -1,0 +1,86 @@
+"""Plotly figures of E–pH diagrams: exact domain polygons, water lines and an operating window.
+
+Regions are told apart by fill pattern and label as well as by colour; the
+palette keeps the three regions apart for the common colour-vision deficiencies
+(tints of blue, ochre and vermilion of differing lightness).
+"""
+
+import plotly.graph_objects as go
+
+REGION_STYLE = {
+    "immunity": {"fill": "rgba(52, 101, 164, 0.30)", "line": "#274b7a", "pattern": ""},
+    "passivation": {"fill": "rgba(222, 170, 60, 0.38)", "line": "#8a6414", "pattern": "/"},
+    "corrosion": {"fill": "rgba(206, 92, 60, 0.30)", "line": "#8f3a22", "pattern": "x"},
+}
+"""Fill, outline and pattern of each region."""
+
+WATER_STYLE = {"color": "#1b1b1b", "dash": "dash", "width": 1.6}
+WINDOW_STYLE = {"color": "#6a3d9a", "width": 2.5}
+
+
+def diagram_figure(payload: dict, *, operating_window: list[list[float]] | None = None,
+                   title: str | None = None, potential_offset: float = 0.0, scale: str = "SHE",
+                   offset_slope: float = 0.0) -> go.Figure:
+    """A figure from a diagram payload (``app.payloads.diagram_payload``).
+
+    The potential axis is shown on ``scale``: E_scale = E_SHE − potential_offset − offset_slope·pH
+    (offset_slope is the Nernst slope for the RHE, 0 otherwise). ``operating_window`` is a polygon
+    [[pH, E vs SHE], …] drawn on top.
+    """
+
+    def on_scale(ph: float, e: float) -> float:
+        return e - potential_offset + offset_slope * ph
+
+    figure = go.Figure()
+    shown_regions: set[str] = set()
+    for domain in payload["domains"]:
+        style = REGION_STYLE[domain["region"]]
+        xs = [p[0] for p in domain["polygon"]] + [domain["polygon"][0][0]]
+        ys = [on_scale(*p) for p in domain["polygon"]] + [on_scale(*domain["polygon"][0])]
+        label = f"{domain['formula']} ({domain['phase']})"
+        figure.add_trace(go.Scatter(
+            x=xs, y=ys, mode="lines", fill="toself", fillcolor=style["fill"],
+            fillpattern={"shape": style["pattern"], "fgcolor": style["line"], "size": 9, "solidity": 0.15},
+            line={"color": style["line"], "width": 1.2}, name=domain["region"],
+            legendgroup=domain["region"], showlegend=domain["region"] not in shown_regions,
+            hoveron="fills", text=f"{label}: {domain['region']}", hoverinfo="text",
+        ))
+        shown_regions.add(domain["region"])
+        centre_x = sum(xs[:-1]) / len(xs[:-1])
+        centre_y = sum(ys[:-1]) / len(ys[:-1])
+        figure.add_annotation(x=centre_x, y=centre_y, text=domain["formula"], showarrow=False,
+                              font={"size": 12, "color": "#1b1b1b"})
+    ph_range = payload["window"]["ph"]
+    for key, name in (("hydrogen", "H2/H2O"), ("oxygen", "O2/H2O")):
+        line = payload["water"][key]
+        figure.add_trace(go.Scatter(
+            x=ph_range, y=[on_scale(ph, line["intercept"] + line["slope"] * ph) for ph in ph_range],
+            mode="lines", line=WATER_STYLE, name=f"{name} (1 bar)", hoverinfo="name",
+        ))
+    if operating_window:
+        xs = [p[0] for p in operating_window] + [operating_window[0][0]]
+        ys = [on_scale(*p) for p in operating_window] + [on_scale(*operating_window[0])]
+        figure.add_trace(go.Scatter(x=xs, y=ys, mode="lines+markers", line=WINDOW_STYLE,
+                                    marker={"size": 5}, name="operating window", hoverinfo="name"))
+    e_range = payload["window"]["potential"]
+    figure.update_layout(
+        title=title or f"{payload['element']}: E–pH diagram, dissolved species at {payload['activity']:g}, "
+                       f"{payload['temperature_c']:g} °C",
+        xaxis={"title": "pH", "range": ph_range, "zeroline": False},
+        yaxis={"title": f"E / V vs {scale}", "zeroline": False,
+               "range": None if offset_slope else [e_range[0] - potential_offset, e_range[1] - potential_offset]},
+        template="simple_white", font={"family": "Inter, 'Segoe UI', Helvetica, Arial, sans-serif"},
+        legend={"orientation": "h", "y": -0.15}, margin={"l": 60, "r": 20, "t": 50, "b": 40},
+    )
+    return figure
+
+
+def write_figure(figure: go.Figure, path: str) -> None:
+    """Write ``figure`` as .html (self-contained, works offline), .svg or .png (needs kaleido and Chromium)."""
+    lower = path.lower()
+    if lower.endswith(".html"):
+        figure.write_html(path, include_plotlyjs=True, full_html=True)
+    elif lower.endswith((".svg", ".png")):
+        figure.write_image(path, width=900, height=650)
+    else:
+        raise ValueError("--out must end in .svg, .png or .html")

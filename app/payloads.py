@@ -1,0 +1,79 @@
+"""JSON-ready payloads built from engine results: one shape shared by the CLI, the API and the pages."""
+
+from engine.catalog import Catalog
+from engine.diagram import Diagram
+from engine.species import Species
+
+
+def species_payload(species: Species) -> dict:
+    """The identity of a species as every payload shows it."""
+    return {"formula": species.name, "phase": species.phase, "region": species.region}
+
+
+def diagram_payload(diagram: Diagram, catalog: Catalog) -> dict:
+    """An element's diagram: domains with exact polygons [[pH, E vs SHE], …], boundaries and water lines."""
+    water = diagram.water
+    return {
+        "element": diagram.element,
+        "activity": diagram.activity,
+        "temperature_c": diagram.temperature_c,
+        "window": {"ph": [diagram.window.ph_min, diagram.window.ph_max],
+                   "potential": [diagram.window.e_min, diagram.window.e_max], "scale": "SHE"},
+        "domains": [
+            {**species_payload(d.species), "area": round(d.area, 9),
+             "polygon": [[round(float(x), 6), round(float(y), 6)] for x, y in d.vertices]}
+            for d in diagram.domains
+        ],
+        "boundaries": [
+            {"species": [b.first.name, b.second.name], "equation": b.equation,
+             "intercept": b.intercept, "slope": b.slope, "ph": b.ph,
+             "start": [round(v, 6) for v in b.start], "end": [round(v, 6) for v in b.end]}
+            for b in diagram.boundaries
+        ],
+        "water": {
+            "hydrogen": {"intercept": water.hydrogen_intercept, "slope": -water.slope,
+                         "equation": f"E = {water.hydrogen_intercept:.4f} - {water.slope:.4f} pH"},
+            "oxygen": {"intercept": water.oxygen_intercept, "slope": -water.slope,
+                       "equation": f"E = {water.oxygen_intercept:.4f} - {water.slope:.4f} pH"},
+            "pressure_bar": 1.0,
+        },
+        "catalog_version": catalog.version,
+    }
+
+
+def point_payload(diagram: Diagram, ph: float, potential: float, potential_she: float, scale: str) -> dict:
+    """What is stable at one point, with the point restated on both scales."""
+    species = diagram.stable_species_at(ph, potential_she)
+    return {
+        **species_payload(species),
+        "element": diagram.element,
+        "ph": ph,
+        "potential": potential,
+        "scale": scale,
+        "potential_she": round(potential_she, 9),
+        "activity": diagram.activity,
+        "temperature_c": diagram.temperature_c,
+    }
+
+
+def scales_payload(catalog: Catalog) -> list[dict]:
+    """Every reference scale with its potential vs SHE at 25 °C and its source."""
+    return [
+        {"id": key, "name": row.name, "potential_vs_she": row.potential, "ph_dependent": row.ph_dependent,
+         "dE_dT": row.dE_dT, "valid_c": [row.t_min, row.t_max], "source": row.source,
+         "citation": citation(catalog, row.source), "from_memory": row.from_memory, "note": row.note}
+        for key, row in catalog.scales.items()
+    ]
+
+
+def citation(catalog: Catalog, key: str) -> str:
+    """A source key resolved to a one-line citation."""
+    row = catalog.sources[key]
+    parts = [f"{row.authors} ({row.year}). {row.title}."]
+    if row.publication:
+        parts.append(f"{row.publication}.")
+    if row.table:
+        parts.append(f"{row.table}.")
+    if row.doi:
+        parts.append(f"doi:{row.doi}")
+    return " ".join(parts)
