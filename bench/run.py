@@ -1,0 +1,25 @@
+"""Run every benchmark and print one JSON object of figures (``make bench``)."""
+
+import json
+import platform
+import sys
+from pathlib import Path
+
+sys.path.insert(0, str(Path(__file__).resolve().parent))
+
+from engine_bench import engine_figures  # noqa: E402
+
+
+def machine() -> dict:
+    import os
+
+    return {"python": platform.python_version(), "machine": platform.machine(), "cpus": os.cpu_count()}
+
+
+def main() -> None:
+    figures = {"machine": machine(), "engine": engine_figures()}
+    print(json.dumps(figures, indent=2))
+
+
+if __name__ == "__main__":
+    main()

@@ -1,0 +1,110 @@
+"""The command line: JSON contracts, human output, and clear messages for bad input."""
+
+import json
+import subprocess
+import sys
+
+import pytest
+
+from app.cli import main
+
+
+def run(capsys, *argv):
+    code = main(list(argv))
+    captured = capsys.readouterr()
+    return code, captured.out, captured.err
+
+
+def run_json(capsys, *argv):
+    code, out, err = run(capsys, *argv, "--json")
+    assert code == 0, err
+    return json.loads(out)
+
+
+def test_diagram_json_contract(capsys):
+    payload = run_json(capsys, "diagram", "Zn")
+    assert {"domains", "boundaries", "water"} <= set(payload)
+    for domain in payload["domains"]:
+        assert {"formula", "phase", "region", "polygon"} <= set(domain)
+        assert all(len(point) == 2 for point in domain["polygon"])
+    assert all(len(b["species"]) == 2 and b["equation"] for b in payload["boundaries"])
+
+
+def test_diagram_activity_moves_the_zinc_line(capsys):
+    low = run_json(capsys, "diagram", "Zn", "--activity", "1e-6")
+    high = run_json(capsys, "diagram", "Zn", "--activity", "1")
+    line = lambda p: next(b for b in p["boundaries"] if set(b["species"]) == {"Zn", "Zn^2+"})  # noqa: E731
+    # Zn2+/Zn: E = -0.762 + 0.0296 log a (Bard, Parsons & Jordan 1985; Nernst)
+    assert line(high)["intercept"] == pytest.approx(-0.762, abs=0.01)
+    assert line(low)["intercept"] - line(high)["intercept"] == pytest.approx(-6 * 0.02958, abs=1e-4)
+
+
+def test_point_json_contract_with_negative_potential(capsys):
+    payload = run_json(capsys, "point", "Zn", "--ph", "7", "--potential=-1.5")
+    assert payload["formula"] == "Zn" and payload["region"] == "immunity" and payload["phase"] == "solid"
+
+
+def test_point_on_another_scale(capsys):
+    # -1.2 V vs SCE = -0.959 V vs SHE: still just below the Zn/Zn2+ line at 10^-6 (-0.940 V)
+    payload = run_json(capsys, "point", "Zn", "--ph", "4", "--potential=-1.2", "--scale", "SCE")
+    assert payload["potential_she"] == pytest.approx(-0.9588, abs=1e-4)
+    assert payload["region"] == "immunity"
+
+
+def test_convert_json_contract(capsys):
+    payload = run_json(capsys, "convert", "0.5", "--from", "SCE", "--to", "SHE")
+    assert payload == {**payload, "value": pytest.approx(0.7412), "scale": "SHE"}
+
+
+def test_convert_rhe_needs_ph(capsys):
+    code, _, err = run(capsys, "convert", "0.5", "--from", "RHE", "--to", "SHE")
+    assert code == 2 and "--ph" in err
+
+
+def test_scales_json_lists_sources(capsys):
+    payload = run_json(capsys, "scales")
+    ids = {row["id"] for row in payload}
+    assert {"SHE", "RHE", "SCE", "AgAgCl-sat", "AgAgCl-3M", "HgHgO-1M", "MSE"} <= ids
+    assert all(row["source"] and row["citation"] for row in payload)
+
+
+def test_human_diagram_output(capsys):
+    code, out, _ = run(capsys, "diagram", "Fe")
+    assert code == 0 and "Fe2O3" in out and "O2/H2O" in out
+
+
+@pytest.mark.parametrize("argv, message", [
+    (["diagram", "Unobtainium"], "known elements: "),
+    (["point", "Zn", "--ph", "30", "--potential", "0"], "ph must be between -2 and 16"),
+    (["point", "Zn", "--ph", "7", "--potential", "5"], "potential must be between -3 and 3"),
+    (["point", "Zn", "--ph", "seven", "--potential", "0"], "--ph must be a number"),
+    (["diagram", "Zn", "--activity", "0"], "activity must be between"),
+    (["diagram", "Zn", "--activity", "2"], "activity must be between"),
+    (["diagram", "Zn", "--activity", "nan"], "activity must be a finite number"),
+    (["point", "Zn", "--ph", "7", "--potential", "0", "--scale", "XYZ"], "unknown reference scale 'XYZ'"),
+    (["diagram", "Zn", "--window-ph", "5:1"], "empty or inverted"),
+    (["diagram", "Zn", "--temperature", "-10"], "temperature must be between"),
+    (["diagram", "Zn", "--data", "/nonexistent/dir"], "not a directory"),
+    (["diagram"], "required"),
+    (["frobnicate"], "invalid choice"),
+])
+def test_bad_input_gives_a_clear_message(capsys, argv, message):
+    code, out, err = run(capsys, *argv)
+    assert code == 2
+    assert message in err
+    assert "Traceback" not in err + out
+
+
+def test_malformed_user_data_file(capsys, tmp_path):
+    (tmp_path / "Zn.toml").write_text('element = "Zn"\n[[species]]\nformula = "Zn"\ncharge = 0\nphase = "solid"\n'
+                                      'dgf = "oops"\nsource = "wagman1982"\n')
+    code, _, err = run(capsys, "diagram", "Zn", "--data", str(tmp_path))
+    assert code == 2
+    assert "Zn.toml" in err and "species #1 (Zn)" in err and "'dgf'" in err
+
+
+def test_console_script_runs_without_traceback():
+    result = subprocess.run([sys.executable, "-m", "app.cli", "point", "Nope", "--ph", "1", "--potential", "0"],
+                            capture_output=True, text=True, timeout=60)
+    assert result.returncode == 2
+    assert "unknown element" in result.stderr and "Traceback" not in result.stderr

@@ -1,0 +1,50 @@
+"""Reference-scale conversions, both ways, against tabulated reference-electrode potentials."""
+
+import pytest
+
+from engine.catalog import default_catalog
+from engine.errors import InputError
+from engine.scales import convert, from_she, to_she
+
+SCALES = default_catalog().scales
+
+# Potentials vs SHE at 25 °C, recalled from memory: Bard & Faulkner (2001), Electrochemical Methods,
+# Appendix C (SCE 0.2412 V, Ag/AgCl sat. KCl 0.197 V); Sawyer, Sobkowiak & Roberts (1995),
+# Electrochemistry for Chemists, ch. 5 (Ag/AgCl 3 M KCl 0.210 V, Hg/HgO 1 M NaOH 0.140 V, MSE 0.640 V).
+PUBLISHED = {"SCE": 0.2412, "AgAgCl-sat": 0.197, "AgAgCl-3M": 0.210, "HgHgO-1M": 0.140, "MSE": 0.640}
+
+
+@pytest.mark.parametrize("scale, expected", PUBLISHED.items())
+def test_reference_potential_matches_published_value(scale, expected):
+    assert to_she(SCALES, 0.0, scale) == pytest.approx(expected, abs=0.002)
+
+
+@pytest.mark.parametrize("scale", list(SCALES))
+@pytest.mark.parametrize("value", [-1.2, 0.0, 0.85])
+def test_conversion_round_trips(scale, value):
+    assert from_she(SCALES, to_she(SCALES, value, scale, ph=7), scale, ph=7) == pytest.approx(value, abs=1e-12)
+
+
+def test_rhe_follows_the_nernst_slope():
+    # E(SHE) = E(RHE) - 0.0592 pH at 25 °C (Bard & Faulkner 2001, common practice).
+    assert to_she(SCALES, 1.23, "RHE", ph=0) == pytest.approx(1.23)
+    assert to_she(SCALES, 1.23, "RHE", ph=14) == pytest.approx(1.23 - 14 * 0.05916, abs=1e-4)
+
+
+def test_sce_to_agagcl():
+    # 0.2412 - 0.197 = 0.044 V between the two saturated references (Bard & Faulkner 2001)
+    assert convert(SCALES, 0.0, "SCE", "AgAgCl-sat") == pytest.approx(0.0442, abs=1e-4)
+
+
+def test_scale_ids_are_case_insensitive():
+    assert to_she(SCALES, 0.0, "sce") == to_she(SCALES, 0.0, "SCE")
+
+
+def test_unknown_scale_lists_known_ones():
+    with pytest.raises(InputError, match="known scales: SHE, RHE"):
+        to_she(SCALES, 0.0, "NHE2")
+
+
+def test_rhe_needs_ph():
+    with pytest.raises(InputError, match="needs the pH"):
+        to_she(SCALES, 0.0, "RHE")
