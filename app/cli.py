@@ -15,7 +15,10 @@ from engine.diagram import DEFAULT_ACTIVITY, Window, check_point, check_temperat
 from engine.errors import ElectrosieveError, InputError
 from engine.scales import canonical_scale, convert, needs_ph, to_she
 
+from engine.screen import make_scenario, screen
+
 from . import payloads
+from .cautions import CAUTIONS
 
 EXIT_BAD_INPUT = 2
 EXIT_INTERNAL = 1
@@ -159,6 +162,156 @@ def cmd_scales(args) -> None:
     _emit(args, payload, human)
 
 
+def _list(text: str | None) -> list[str] | None:
+    return None if text is None else [part.strip() for part in text.split(",") if part.strip()]
+
+
+def _weights(text: str | None) -> dict | None:
+    if text is None:
+        return None
+    weights = {}
+    for part in text.split(","):
+        key, _, value = part.partition("=")
+        if not value:
+            raise InputError(f"--weights must look like unacceptable=1,price=0.2 (given {text!r})", field="--weights")
+        weights[key.strip()] = _number(value, f"--weights {key.strip()}")
+    return weights
+
+
+def scenario_from_args(args, catalog: Catalog):
+    """The screening scenario described by the command line."""
+    ph = parse_range(args.ph, "--ph")
+    potential = parse_range(args.potential, "--potential")
+    accept = _list(args.accept)
+    if accept is not None and not accept:
+        raise InputError("--accept must name at least one region", field="--accept")
+    return make_scenario(
+        ph=list(ph), potential=list(potential), scale=args.scale, activity=_number(args.activity, "--activity"),
+        temperature=_number(args.temperature, "--temperature"), role=args.role, accept=accept,
+        materials=_list(args.materials), family=args.family, rank_by=_list(args.rank_by), weights=_weights(args.weights),
+        catalog=catalog,
+    )
+
+
+def screen_payload(result: dict) -> dict:
+    """The screen result with the cautions that go wherever results appear."""
+    return {**result, "cautions": list(CAUTIONS)}
+
+
+CSV_COLUMNS = ("rank", "material", "name", "element", "phase", "family", "verdict", "immunity", "passivation",
+               "corrosion", "instability_ev", "log10_dissolved", "margin_mv", "price_usd_per_kg", "price_year",
+               "hazards", "reason")
+
+
+def csv_rows(result: dict) -> list[dict]:
+    """One flat row per ranked candidate (the CSV download)."""
+    rows = []
+    for row in result["results"]:
+        flat = {key: row.get(key) for key in CSV_COLUMNS}
+        flat.update(row["fractions"])
+        flat["hazards"] = "; ".join(f"{h['species']}: {h['note']}" for h in row["hazards"])
+        rows.append(flat)
+    return rows
+
+
+def write_csv(result: dict, stream) -> None:
+    import csv
+
+    writer = csv.DictWriter(stream, fieldnames=CSV_COLUMNS, lineterminator="\n")
+    writer.writeheader()
+    writer.writerows(csv_rows(result))
+
+
+def cmd_screen(args) -> None:
+    catalog = _catalog(args)
+    if args.json and args.csv:
+        raise InputError("choose one of --json and --csv", field="--csv")
+    result = screen_payload(screen(scenario_from_args(args, catalog), catalog))
+    if args.csv:
+        write_csv(result, sys.stdout)
+        return
+    _emit(args, result, _print_screen)
+
+
+def _print_screen(result: dict) -> None:
+    from rich.table import Table
+
+    s = result["scenario"]
+    console = _console()
+    title = (f"{s['role']} at pH {s['ph']}, {s['potential']} V vs {s['scale']}, {s['temperature']:g} °C, "
+             f"dissolved species at {s['activity']:g}; acceptable: {', '.join(s['accept'])}")
+    table = Table(title=title, caption=result["rule"], show_lines=False)
+    for column in ("#", "material", "verdict", "imm %", "pass %", "corr %", "ΔΦ eV", "log c", "margin mV", "USD/kg", "reason"):
+        table.add_column(column, overflow="fold")
+    for row in result["results"]:
+        f = row["fractions"]
+        price = row["price_usd_per_kg"]
+        table.add_row(str(row["rank"]), row["material"], row["verdict"], f"{100 * f['immunity']:.0f}",
+                      f"{100 * f['passivation']:.0f}", f"{100 * f['corrosion']:.0f}", f"{row['instability_ev']:.2f}",
+                      "-" if row["log10_dissolved"] is None else f"{row['log10_dissolved']:.1f}",
+                      f"{row['margin_mv']:.0f}" + ("+" if row["margin_capped"] and row["margin_mv"] > 0 else ""),
+                      "-" if price is None else f"{price:,.0f}", row["reason"])
+    console.print(table)
+    flagged = [(row["material"], h) for row in result["results"] for h in row["hazards"] if h["kind"] == "toxic"]
+    for material, hazard in flagged:
+        console.print(f"[bold]hazard[/bold] {material}: {hazard['species']} - {hazard['note']}")
+    gas = {h["species"]: h["note"] for row in result["results"] for h in row["hazards"] if h["kind"] == "gas"}
+    for note in gas.values():
+        console.print(f"[bold]gas[/bold]: {note}")
+    console.print("Cautions:")
+    for caution in result["cautions"]:
+        console.print(f" - {caution}")
+
+
+def cmd_materials(args) -> None:
+    catalog = _catalog(args)
+    payload = payloads.materials_payload(catalog)
+
+    def human(rows):
+        from rich.table import Table
+
+        table = Table(title=f"{len(rows)} candidate materials")
+        for column in ("id", "name", "family", "phase", "USD/kg (year)", "crust mg/kg", "hazards"):
+            table.add_column(column, overflow="fold")
+        for row in rows:
+            price = "-" if row["price_usd_per_kg"] is None else f"{row['price_usd_per_kg']:,.2f} ({row['price_year']})"
+            crust = "-" if row["abundance_mg_per_kg"] is None else f"{row['abundance_mg_per_kg']:g}"
+            table.add_row(row["id"], row["name"], row["family"], row["phase"], price, crust,
+                          ", ".join(h["species"] for h in row["hazards"]))
+        _console().print(table)
+
+    _emit(args, payload, human)
+
+
+def cmd_sources(args) -> None:
+    catalog = _catalog(args)
+    payload = payloads.sources_payload(catalog, catalog.system(args.element).element)
+
+    def human(p):
+        from rich.table import Table
+
+        table = Table(title=f"{p['element']}: species data and their sources")
+        for column in ("species", "phase", "ΔGf° kJ/mol", "ΔHf° kJ/mol", "S° J/(mol K)", "source", "memory", "note"):
+            table.add_column(column, overflow="fold")
+        fmt = lambda v: "-" if v is None else f"{v:g}"  # noqa: E731
+        for row in p["species"]:
+            table.add_row(row["formula"], row["phase"], fmt(row["dgf"]), fmt(row["dhf"]), fmt(row["s"]), row["source"],
+                          "yes" if row["from_memory"] else "", row["note"])
+        console = _console()
+        console.print(table)
+        for key, text in p["citations"].items():
+            console.print(f"[bold]{key}[/bold]: {text}")
+
+    _emit(args, payload, human)
+
+
+def cmd_serve(args) -> None:
+    from .server import serve
+
+    serve(host=args.host, port=int(_number(args.port, "--port")), workers=int(_number(args.workers, "--workers")),
+          data_dir=args.data_dir)
+
+
 def build_parser() -> argparse.ArgumentParser:
     parser = _Parser(prog="electrosieve", description=__doc__.splitlines()[0])
     commands = parser.add_subparsers(dest="command", required=True, parser_class=_Parser)
@@ -198,6 +351,39 @@ def build_parser() -> argparse.ArgumentParser:
     sub = commands.add_parser("scales", help="list the reference scales")
     common(sub, window=False)
     sub.set_defaults(handler=cmd_scales)
+
+    sub = commands.add_parser("screen", help="rank candidate materials over an operating window")
+    sub.add_argument("--ph", required=True, metavar="A[:B]", help="pH point or range")
+    sub.add_argument("--potential", required=True, metavar="X[:Y]", help="potential point or range [V] on --scale")
+    sub.add_argument("--scale", default="SHE", help="reference scale of --potential (default SHE)")
+    sub.add_argument("--activity", default=str(DEFAULT_ACTIVITY), help="activity of dissolved species (default 1e-6)")
+    sub.add_argument("--temperature", default="25", help="temperature in °C (default 25)")
+    sub.add_argument("--role", default="anode", help="anode or cathode (default anode)")
+    sub.add_argument("--accept", metavar="REGIONS", help="acceptable regions, e.g. immunity,passivation "
+                     "(default: immunity for a cathode, immunity and passivation for an anode)")
+    sub.add_argument("--materials", metavar="IDS", help="comma-separated material ids (default: all)")
+    sub.add_argument("--family", help="only this family, e.g. noble")
+    sub.add_argument("--rank-by", metavar="KEYS", help="ranking order, e.g. unacceptable,instability,dissolved,price")
+    sub.add_argument("--weights", metavar="K=W,...", help="rank by a weighted score instead, e.g. unacceptable=1,price=0.2")
+    sub.add_argument("--csv", action="store_true", help="print the ranked rows as CSV")
+    common(sub, window=False)
+    sub.set_defaults(handler=cmd_screen)
+
+    sub = commands.add_parser("materials", help="list the candidate materials with price, abundance and hazards")
+    common(sub, window=False)
+    sub.set_defaults(handler=cmd_materials)
+
+    sub = commands.add_parser("sources", help="an element's species data with their citations")
+    sub.add_argument("element")
+    common(sub, window=False)
+    sub.set_defaults(handler=cmd_sources)
+
+    sub = commands.add_parser("serve", help="run the web app")
+    sub.add_argument("--host", default="127.0.0.1")
+    sub.add_argument("--port", default="8000")
+    sub.add_argument("--workers", default="1", help="worker processes (default 1)")
+    sub.add_argument("--data-dir", help="where shortlists are stored (default: $ELECTROSIEVE_DATA_DIR or ./var)")
+    sub.set_defaults(handler=cmd_serve)
     return parser
 
 

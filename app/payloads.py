@@ -77,3 +77,32 @@ def citation(catalog: Catalog, key: str) -> str:
     if row.doi:
         parts.append(f"doi:{row.doi}")
     return " ".join(parts)
+
+
+def materials_payload(catalog: Catalog) -> list[dict]:
+    """Every material with its practical metadata and citations."""
+    rows = []
+    for m in catalog.materials.values():
+        rows.append({
+            "id": m.id, "name": m.name, "element": m.element, "phase": m.phase, "family": m.family,
+            "price_usd_per_kg": m.price_usd_per_kg, "price_year": m.price_year, "price_source": m.price_source,
+            "abundance_mg_per_kg": m.abundance_mg_per_kg, "abundance_source": m.abundance_source,
+            "hazards": [{"species": h.species, "note": h.note} for h in m.hazards],
+            "from_memory": m.from_memory, "note": m.note,
+        })
+    return rows
+
+
+def sources_payload(catalog: Catalog, element: str) -> dict:
+    """An element's species values, each with its source key, and the citations they resolve to."""
+    system = catalog.systems[element]
+    species = [
+        {"formula": s.name, "phase": s.phase, "region": s.region, "charge": s.charge, "dgf": s.dgf, "dhf": s.dhf,
+         "s": s.s, "cp": s.cp, "uncertainty": s.uncertainty, "source": s.source, "from_memory": s.from_memory,
+         "note": s.note}
+        for s in system.species
+    ]
+    keys = sorted({row["source"] for row in species})
+    return {"element": element, "species": species, "citations": {key: citation(catalog, key) for key in keys},
+            "units": {"dgf": "kJ/mol", "dhf": "kJ/mol", "s": "J/(mol K)", "cp": "J/(mol K)"},
+            "catalog_version": catalog.version}

@@ -73,24 +73,35 @@ class Boundary:
         return f"E = {self.intercept:.4f} {sign} {abs(self.slope):.4f} pH"
 
 
-def domain_of(planes: Planes, index: int, window: Window) -> Domain | None:
-    """The domain of species ``index`` within ``window``, or None when it is nowhere the most stable."""
-    vertices, labels = rectangle(window.ph_min, window.ph_max, window.e_min, window.e_max)
+def envelope_piece(planes: Planes, index: int, vertices: np.ndarray, labels: np.ndarray,
+                   competitors: np.ndarray | None = None) -> tuple[np.ndarray, np.ndarray]:
+    """The part of a convex polygon (or segment, or point) where species ``index`` has the lowest Φ.
+
+    Only species flagged in the boolean mask ``competitors`` compete (all by default). Each step
+    clips by the competitor most violated at the current vertices; when no vertex is violated the
+    whole convex piece satisfies every constraint, so the result is exact.
+    """
     d_offset = planes.offset[index] - planes.offset
     d_ph = planes.ph_slope[index] - planes.ph_slope
     d_e = planes.e_slope[index] - planes.e_slope
-    clipped = np.zeros(len(planes.offset), dtype=bool)
-    clipped[index] = True
+    done = np.zeros(len(planes.offset), dtype=bool) if competitors is None else ~competitors
+    done[index] = True
     while len(vertices):
         excess = d_offset[None, :] + d_ph[None, :] * vertices[:, :1] + d_e[None, :] * vertices[:, 1:]
         worst = excess.max(axis=0)
-        worst[clipped] = -np.inf
+        worst[done] = -np.inf
         competitor = int(np.argmax(worst))
         tolerance = EPS * max(1.0, abs(d_offset[competitor]), abs(d_ph[competitor]), abs(d_e[competitor]))
         if worst[competitor] <= tolerance:
             break
         vertices, labels = clip(vertices, labels, d_offset[competitor], d_ph[competitor], d_e[competitor], competitor)
-        clipped[competitor] = True
+        done[competitor] = True
+    return vertices, labels
+
+
+def domain_of(planes: Planes, index: int, window: Window) -> Domain | None:
+    """The domain of species ``index`` within ``window``, or None when it is nowhere the most stable."""
+    vertices, labels = envelope_piece(planes, index, *rectangle(window.ph_min, window.ph_max, window.e_min, window.e_max))
     if len(vertices) < 3 or area(vertices) < MIN_DOMAIN_AREA:
         return None
     return Domain(index=index, species=planes.species[index], vertices=vertices, neighbours=labels)

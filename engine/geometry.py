@@ -98,3 +98,93 @@ def is_convex(vertices: np.ndarray, tolerance: float = 1e-9) -> bool:
     following = np.roll(edges, -1, axis=0)
     cross = edges[:, 0] * following[:, 1] - edges[:, 1] * following[:, 0]
     return bool((cross >= -tolerance).all())
+
+
+def edge_half_planes(vertices: np.ndarray) -> list[tuple[float, float, float]]:
+    """The half-planes a + b·x + c·y ≤ 0 whose intersection is a counter-clockwise convex polygon."""
+    planes = []
+    following = np.roll(vertices, -1, axis=0)
+    for (px, py), (qx, qy) in zip(vertices, following):
+        dx, dy = qx - px, qy - py
+        planes.append((float(-dy * px + dx * py), float(dy), float(-dx)))
+    return planes
+
+
+def intersect(piece: np.ndarray, polygon: np.ndarray) -> np.ndarray:
+    """The part of ``piece`` (a convex polygon, a segment or a point) inside the convex ``polygon``."""
+    labels = np.full(len(piece), WINDOW_EDGE, dtype=int)
+    for a, b, c in edge_half_planes(polygon):
+        piece, labels = clip(piece, labels, a, b, c, WINDOW_EDGE)
+        if len(piece) == 0:
+            break
+    return piece
+
+
+def measure(vertices: np.ndarray, dimension: int) -> float:
+    """Size of a piece: area (dimension 2), length (1) or 1 for a non-empty point (0).
+
+    >>> measure(np.array([[0.0, 0.0], [3.0, 4.0]]), 1)
+    5.0
+    """
+    if len(vertices) == 0:
+        return 0.0
+    if dimension == 2:
+        return abs(area(vertices))
+    if dimension == 1:
+        spread = vertices[:, None, :] - vertices[None, :, :]
+        return float(np.sqrt((spread ** 2).sum(axis=2)).max())
+    return 1.0
+
+
+def convex_hull(points: np.ndarray) -> np.ndarray:
+    """Counter-clockwise convex hull by Andrew's monotone chain (Andrew, Inf. Proc. Lett. 9, 216, 1979).
+
+    >>> convex_hull(np.array([[0, 0], [1, 0], [1, 1], [0, 1], [0.5, 0.5]])).tolist()
+    [[0.0, 0.0], [1.0, 0.0], [1.0, 1.0], [0.0, 1.0]]
+    """
+    unique = sorted({(float(x), float(y)) for x, y in points})
+    if len(unique) <= 2:
+        return np.array(unique, dtype=float)
+
+    def cross(o, a, b):
+        return (a[0] - o[0]) * (b[1] - o[1]) - (a[1] - o[1]) * (b[0] - o[0])
+
+    lower: list = []
+    for p in unique:
+        while len(lower) >= 2 and cross(lower[-2], lower[-1], p) <= 0:
+            lower.pop()
+        lower.append(p)
+    upper: list = []
+    for p in reversed(unique):
+        while len(upper) >= 2 and cross(upper[-2], upper[-1], p) <= 0:
+            upper.pop()
+        upper.append(p)
+    return np.array(lower[:-1] + upper[:-1], dtype=float)
+
+
+def vertical_overlap_shifts(piece: np.ndarray, polygon: np.ndarray) -> tuple[float, float] | None:
+    """The interval of vertical shifts δ for which ``piece`` + (0, δ) meets the convex ``polygon``.
+
+    The shifts form the intersection of the line x = 0 with the Minkowski sum polygon ⊕ (−piece),
+    itself the convex hull of pairwise vertex differences (de Berg et al., Computational Geometry,
+    3rd ed., 2008, §13.3). None when no vertical shift makes them meet.
+
+    >>> square = rectangle(0, 1, 0, 1)[0]
+    >>> vertical_overlap_shifts(np.array([[0.5, 3.0]]), square)
+    (-3.0, -2.0)
+    """
+    differences = (polygon[:, None, :] - piece[None, :, :]).reshape(-1, 2)
+    hull = convex_hull(differences)
+    xs, ys = hull[:, 0], hull[:, 1]
+    if xs.min() > 1e-12 or xs.max() < -1e-12:
+        return None
+    crossings = list(ys[np.abs(xs) <= 1e-12])
+    count = len(hull)
+    for k in range(count):
+        x0, y0 = hull[k]
+        x1, y1 = hull[(k + 1) % count]
+        if (x0 < 0 < x1) or (x1 < 0 < x0):
+            crossings.append(y0 + (0 - x0) * (y1 - y0) / (x1 - x0))
+    if not crossings:
+        return None
+    return float(min(crossings)), float(max(crossings))

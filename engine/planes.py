@@ -26,6 +26,10 @@ class Planes:
     offset: np.ndarray
     ph_slope: np.ndarray
     e_slope: np.ndarray
+    metal_atoms: np.ndarray
+    dissolved: np.ndarray
+    activity: float
+    temperature_k: float
 
     def at(self, ph: float, potential: float) -> np.ndarray:
         """Φ of every species at one point (pH, E vs SHE [V])."""
@@ -57,4 +61,9 @@ def build_planes(species: tuple[Species, ...], water_gibbs: float, activity: flo
         offset.append(energy / m)
         ph_slope.append(-s.protons_released * slope / m)
         e_slope.append(-s.electrons_released / m)
-    return Planes(tuple(species), np.array(offset), np.array(ph_slope), np.array(e_slope))
+    return Planes(
+        species=tuple(species), offset=np.array(offset), ph_slope=np.array(ph_slope), e_slope=np.array(e_slope),
+        metal_atoms=np.array([s.metal_atoms for s in species], dtype=float),
+        dissolved=np.array([s.is_dissolved for s in species], dtype=bool),
+        activity=activity, temperature_k=temperature_k,
+    )

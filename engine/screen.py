@@ -1,0 +1,176 @@
+"""Screen candidate materials against a cell's operating window and rank them.
+
+A scenario gives the pH (point or range), the potential (point or range) on a
+reference scale, the dissolved-ion activity, the temperature, the electrode's
+role and what counts as acceptable. Every candidate is judged on its element's
+exact diagram (``engine.metrics``) and ranked by a rule shown to the user
+(``engine.ranking``).
+"""
+
+from dataclasses import dataclass, field
+
+from .catalog import Catalog, default_catalog
+from .diagram import DEFAULT_ACTIVITY, check_activity, check_temperature, diagram
+from .domains import Window
+from .errors import InputError
+from .materials import FAMILIES, Material
+from .metrics import (instability, max_dissolved, potential_margin, region_fractions, region_pieces)
+from .ranking import DEFAULT_ORDER, RANK_KEYS, check_order, check_weights, rank, reason
+from .window import OperatingWindow, operating_window
+
+ROLES = ("anode", "cathode")
+REGIONS = ("immunity", "passivation", "corrosion")
+DEFAULT_ACCEPT = {"cathode": ("immunity",), "anode": ("immunity", "passivation")}
+"""Acceptable regions by role: a cathode must stay metallic; an anode may also carry a solid film (common practice)."""
+
+
+@dataclass(frozen=True)
+class Scenario:
+    """A cell's operating conditions and the question asked of the catalog."""
+
+    ph: tuple[float, float]
+    potential: tuple[float, float]
+    scale: str = "SHE"
+    activity: float = DEFAULT_ACTIVITY
+    temperature: float = 25.0
+    role: str = "anode"
+    accept: tuple[str, ...] = ()
+    materials: tuple[str, ...] | None = None
+    family: str | None = None
+    rank_by: tuple[str, ...] = DEFAULT_ORDER
+    weights: dict = field(default_factory=dict)
+
+    def echo(self) -> dict:
+        """The scenario as JSON, in the same shape the API accepts."""
+        point = lambda pair: pair[0] if pair[0] == pair[1] else list(pair)  # noqa: E731
+        return {
+            "ph": point(self.ph), "potential": point(self.potential), "scale": self.scale,
+            "activity": self.activity, "temperature": self.temperature, "role": self.role,
+            "accept": list(self.accept), "materials": None if self.materials is None else list(self.materials),
+            "family": self.family, "rank_by": list(self.rank_by), "weights": dict(self.weights),
+        }
+
+
+def make_scenario(*, ph, potential, scale: str = "SHE", activity=DEFAULT_ACTIVITY, temperature=25.0,
+                  role: str = "anode", accept=None, materials=None, family=None, rank_by=None, weights=None,
+                  catalog: Catalog | None = None) -> Scenario:
+    """A checked :class:`Scenario`; every problem is an :class:`InputError` naming its field."""
+    catalog = catalog or default_catalog()
+    role = str(role).strip().lower()
+    if role not in ROLES:
+        raise InputError(f"role must be one of {', '.join(ROLES)} (given {role!r})", field="role")
+    if accept is None:
+        accept_tuple = DEFAULT_ACCEPT[role]
+    else:
+        accept_tuple = tuple(dict.fromkeys(str(a).strip().lower() for a in accept))
+        if not accept_tuple:
+            raise InputError(f"accept must name at least one of {', '.join(REGIONS)}", field="accept")
+        unknown = [a for a in accept_tuple if a not in REGIONS]
+        if unknown:
+            raise InputError(f"accept: unknown region {unknown[0]!r}; allowed: {', '.join(REGIONS)}", field="accept")
+    if materials is not None and family is not None:
+        raise InputError("give either materials or family, not both", field="materials")
+    if family is not None and family not in FAMILIES:
+        raise InputError(f"unknown family {family!r}; allowed: {', '.join(FAMILIES)}", field="family")
+    ids = None
+    if materials is not None:
+        if isinstance(materials, str) or not all(isinstance(m, str) for m in materials):
+            raise InputError("materials must be a list of material ids", field="materials")
+        if not materials:
+            raise InputError("materials is empty: leave it out to screen every material", field="materials")
+        ids = tuple(dict.fromkeys(material_id(catalog, m) for m in materials))
+    scenario = Scenario(
+        ph=(0.0, 0.0), potential=(0.0, 0.0), scale=scale, activity=check_activity(activity),
+        temperature=check_temperature(temperature), role=role, accept=accept_tuple, materials=ids, family=family,
+        rank_by=check_order(rank_by) if rank_by is not None else DEFAULT_ORDER,
+        weights=check_weights(weights) if weights else {},
+    )
+    window = operating_window(catalog.scales, ph, potential, scale, scenario.temperature, Window())
+    return Scenario(**{**scenario.__dict__, "ph": window.ph, "potential": window.potential, "scale": window.scale})
+
+
+def material_id(catalog: Catalog, given: str) -> str:
+    """The catalog id of a material (ids are case-insensitive), or an error listing the known ones."""
+    for key in catalog.materials:
+        if key.lower() == str(given).strip().lower():
+            return key
+    raise InputError(f"unknown material {given!r}; known materials: {', '.join(catalog.materials)}", field="materials")
+
+
+def candidates(catalog: Catalog, scenario: Scenario) -> list[Material]:
+    """The materials a scenario asks about."""
+    if scenario.materials is not None:
+        return [catalog.materials[m] for m in scenario.materials]
+    chosen = [m for m in catalog.materials.values() if scenario.family in (None, m.family)]
+    if not chosen:
+        raise InputError(f"no material in family {scenario.family!r}", field="family")
+    return chosen
+
+
+def gas_evolution(window: OperatingWindow, water) -> list[dict]:
+    """Hazards from leaving the water-stability window: H2 below the H2 line, O2 above the O2 line."""
+    below = [e < water.hydrogen(ph) - 1e-9 for ph, e in window.vertices]
+    above = [e > water.oxygen(ph) + 1e-9 for ph, e in window.vertices]
+    hazards = []
+    if any(below):
+        extent = "the whole window" if all(below) else "part of the window"
+        hazards.append({"kind": "gas", "species": "H2", "note": f"hydrogen evolves over {extent}: flammable gas; ventilate"})
+    if any(above):
+        extent = "the whole window" if all(above) else "part of the window"
+        hazards.append({"kind": "gas", "species": "O2", "note": f"oxygen evolves over {extent}; in chloride media chlorine (toxic) may form"})
+    return hazards
+
+
+def screen_material(catalog: Catalog, scenario: Scenario, material: Material, window: OperatingWindow) -> dict:
+    """All metrics of one candidate (unranked)."""
+    result = diagram(material.element, scenario.activity, scenario.temperature, catalog=catalog)
+    pieces = region_pieces(result, window)
+    fractions = region_fractions(pieces)
+    energy, energy_at = instability(result, window, material.phase)
+    dissolved, dissolved_at = max_dissolved(result, window)
+    margin, capped = potential_margin(result, window, set(scenario.accept))
+    met = {p.species for p in pieces}
+    hazards = [{"kind": "toxic", "species": h.species, "note": h.note} for h in material.hazards if h.species in met]
+    row = {
+        "material": material.id, "name": material.name, "element": material.element, "phase": material.phase,
+        "family": material.family,
+        "fractions": fractions,
+        "unacceptable_fraction": round(sum(v for k, v in fractions.items() if k not in scenario.accept), 12),
+        "stable_phases": [{"species": p.species, "region": p.region, "fraction": round(p.fraction, 9)} for p in pieces],
+        "window_dimension": window.dimension,
+        "instability_ev": round(energy, 9), "instability_at": list(energy_at),
+        "log10_dissolved": None if dissolved is None else round(dissolved, 6),
+        "dissolved_at": None if dissolved_at is None else list(dissolved_at),
+        "margin_mv": round(1000 * margin, 3), "margin_capped": capped,
+        "hazards": hazards + gas_evolution(window, result.water),
+        "price_usd_per_kg": material.price_usd_per_kg, "price_year": material.price_year,
+    }
+    unacceptable = row["unacceptable_fraction"]
+    row["verdict"] = "acceptable" if unacceptable <= 1e-9 else ("rejected" if unacceptable >= 1 - 1e-9 else "partly acceptable")
+    row["reason"] = reason(row)
+    return row
+
+
+def rule_text(scenario: Scenario) -> str:
+    """The ranking rule in words, as shown beside the table."""
+    if scenario.weights:
+        parts = [f"{weight:g} × {key}" for key, weight in scenario.weights.items()]
+        return "lowest weighted score first: " + " + ".join(parts) + " (each key scaled 0-1 across candidates)"
+    return "ranked by " + ", then ".join(f"{key} ({RANK_KEYS[key]})" for key in scenario.rank_by)
+
+
+def screen(scenario: Scenario, catalog: Catalog | None = None) -> dict:
+    """The ranked results of every candidate for ``scenario``."""
+    catalog = catalog or default_catalog()
+    window = operating_window(catalog.scales, scenario.ph, scenario.potential, scenario.scale, scenario.temperature, Window())
+    rows = [screen_material(catalog, scenario, m, window) for m in candidates(catalog, scenario)]
+    ranked = rank(rows, scenario.rank_by, scenario.weights or None)
+    return {
+        "scenario": scenario.echo(),
+        "rule": rule_text(scenario),
+        "window": {"vertices_she": [[round(float(x), 6), round(float(y), 6)] for x, y in window.vertices],
+                   "dimension": window.dimension},
+        "catalog_version": catalog.version,
+        "results": ranked,
+    }
+

@@ -1,0 +1,67 @@
+"""The operating window: the cell's pH and potential ranges as a convex piece of the E–pH plane (vs SHE).
+
+A pH range and a potential range on a fixed reference give a rectangle; on the
+RHE the potential range follows the pH, E(SHE) = E(RHE) − (RT ln10/F)·pH, so
+the window is a parallelogram (a slanted band). A point on one axis gives a
+segment, a point on both a point: ``dimension`` is 2, 1 or 0.
+"""
+
+from dataclasses import dataclass
+
+import numpy as np
+
+from .constants import ZERO_CELSIUS
+from .diagram import check_number
+from .domains import Window
+from .errors import InputError
+from .scales import canonical_scale, to_she
+
+
+@dataclass(frozen=True)
+class OperatingWindow:
+    """The window's vertices [[pH, E vs SHE], …] counter-clockwise, and its dimension (2, 1 or 0)."""
+
+    vertices: np.ndarray
+    dimension: int
+    ph: tuple[float, float]
+    potential: tuple[float, float]
+    scale: str
+
+
+def check_range(values, field: str, low: float, high: float, unit: str = "") -> tuple[float, float]:
+    """A (low, high) pair from a number or a two-element list, finite, ordered and within [low, high]."""
+    if isinstance(values, (list, tuple)):
+        if len(values) not in (1, 2):
+            raise InputError(f"{field} must be a number or a [low, high] pair (given {len(values)} values)", field=field)
+        pair = [check_number(v, field) for v in values]
+    else:
+        pair = [check_number(values, field)]
+    start, end = pair[0], pair[-1]
+    if start > end:
+        raise InputError(f"{field} range is inverted ({start:g} to {end:g}): give it low to high", field=field)
+    if start < low or end > high:
+        raise InputError(f"{field} must lie between {low:g} and {high:g}{unit} (given {start:g} to {end:g})", field=field)
+    return start, end
+
+
+def operating_window(scales: dict, ph, potential, scale: str, temperature_c: float, plot: Window) -> OperatingWindow:
+    """The operating window on the SHE scale, checked to lie inside the diagram window ``plot``."""
+    scale = canonical_scale(scales, scale)
+    ph_range = check_range(ph, "ph", plot.ph_min, plot.ph_max)
+    e_range = check_range(potential, "potential", -1e3, 1e3, " V")
+    temperature_k = temperature_c + ZERO_CELSIUS
+    corners_ph = [ph_range[0], ph_range[1], ph_range[1], ph_range[0]]
+    corners_e = [e_range[0], e_range[0], e_range[1], e_range[1]]
+    corners = [(p, to_she(scales, e, scale, p, temperature_k)) for p, e in zip(corners_ph, corners_e)]
+    unique = []
+    for point in corners:
+        if not any(abs(point[0] - q[0]) < 1e-12 and abs(point[1] - q[1]) < 1e-12 for q in unique):
+            unique.append(point)
+    vertices = np.array(unique, dtype=float)
+    lowest, highest = vertices[:, 1].min(), vertices[:, 1].max()
+    if lowest < plot.e_min - 1e-9 or highest > plot.e_max + 1e-9:
+        raise InputError(
+            f"potential must stay within the diagram's {plot.e_min:g} to {plot.e_max:g} V vs SHE "
+            f"(this window spans {lowest:.3f} to {highest:.3f} V vs SHE)", field="potential")
+    dimension = 2 if len(unique) == 4 else (1 if len(unique) == 2 else 0)
+    return OperatingWindow(vertices=vertices, dimension=dimension, ph=ph_range, potential=e_range, scale=scale)
