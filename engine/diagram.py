@@ -7,7 +7,7 @@ result per (element, activity, temperature, window).
 
 import math
 from dataclasses import dataclass
-from functools import lru_cache
+from functools import cached_property, lru_cache
 
 from .catalog import Catalog, ElementSystem, default_catalog
 from .constants import ZERO_CELSIUS
@@ -40,6 +40,11 @@ class Diagram:
     domains: tuple[Domain, ...]
     boundaries: tuple[Boundary, ...]
     water: WaterLines
+
+    @cached_property
+    def solid_domains(self) -> tuple[Domain, ...]:
+        """Domains of the solids alone (dissolved species left out): where each solid is the most stable solid."""
+        return tuple(stability_domains(self.planes, self.window, competitors=~self.planes.dissolved))
 
     def stable_species_at(self, ph: float, potential: float) -> Species:
         """The species of lowest Φ at (pH, E [V vs SHE])."""

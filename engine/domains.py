@@ -9,10 +9,11 @@ polygon satisfies them, so the result is exact, not sampled.
 """
 
 from dataclasses import dataclass
+from functools import cached_property
 
 import numpy as np
 
-from .geometry import EPS, WINDOW_EDGE, area, clip, rectangle
+from .geometry import EPS, WINDOW_EDGE, area, clip, edge_half_planes, rectangle
 from .planes import Planes
 from .species import Species
 
@@ -50,6 +51,17 @@ class Domain:
     @property
     def area(self) -> float:
         return area(self.vertices)
+
+    @cached_property
+    def half_planes(self) -> list[tuple[float, float, float]]:
+        """The domain as half-planes a + b·pH + c·E ≤ 0 (one per edge)."""
+        return edge_half_planes(self.vertices)
+
+    @cached_property
+    def bounds(self) -> tuple[float, float, float, float]:
+        """(pH min, E min, pH max, E max) of the domain."""
+        low, high = self.vertices.min(axis=0), self.vertices.max(axis=0)
+        return float(low[0]), float(low[1]), float(high[0]), float(high[1])
 
 
 @dataclass(frozen=True)
@@ -99,17 +111,22 @@ def envelope_piece(planes: Planes, index: int, vertices: np.ndarray, labels: np.
     return vertices, labels
 
 
-def domain_of(planes: Planes, index: int, window: Window) -> Domain | None:
+def domain_of(planes: Planes, index: int, window: Window, competitors: np.ndarray | None = None) -> Domain | None:
     """The domain of species ``index`` within ``window``, or None when it is nowhere the most stable."""
-    vertices, labels = envelope_piece(planes, index, *rectangle(window.ph_min, window.ph_max, window.e_min, window.e_max))
+    vertices, labels = envelope_piece(planes, index, *rectangle(window.ph_min, window.ph_max, window.e_min, window.e_max),
+                                      competitors=competitors)
     if len(vertices) < 3 or area(vertices) < MIN_DOMAIN_AREA:
         return None
     return Domain(index=index, species=planes.species[index], vertices=vertices, neighbours=labels)
 
 
-def stability_domains(planes: Planes, window: Window) -> list[Domain]:
-    """Every non-empty domain in ``window``, in catalog order; together they tile the window."""
-    return [d for i in range(len(planes.species)) if (d := domain_of(planes, i, window)) is not None]
+def stability_domains(planes: Planes, window: Window, competitors: np.ndarray | None = None) -> list[Domain]:
+    """Every non-empty domain in ``window``, in catalog order; together they tile the window.
+
+    With a boolean mask ``competitors`` only those species take part (e.g. the solids alone).
+    """
+    indices = range(len(planes.species)) if competitors is None else np.flatnonzero(competitors)
+    return [d for i in indices if (d := domain_of(planes, int(i), window, competitors)) is not None]
 
 
 def boundaries(planes: Planes, domains: list[Domain]) -> list[Boundary]:

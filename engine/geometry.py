@@ -31,42 +31,43 @@ def clip(vertices: np.ndarray, labels: np.ndarray, a: float, b: float, c: float,
     >>> area(v)
     2.0
     """
-    if len(vertices) == 0:
+    count = len(vertices)
+    if count == 0:
         return vertices, labels
-    values = a + b * vertices[:, 0] + c * vertices[:, 1]
+    points = vertices.tolist()
+    values = [a + b * x + c * y for x, y in points]
     scale = EPS * max(1.0, abs(a), abs(b), abs(c))
-    inside = values <= scale
-    if inside.all():
+    inside = [v <= scale for v in values]
+    if all(inside):
         return vertices, labels
-    if not inside.any():
+    if not any(inside):
         return vertices[:0], labels[:0]
-    out_vertices, out_labels = [], []
-    n = len(vertices)
-    for k in range(n):
-        j = (k + 1) % n
+    edge_labels = labels.tolist()
+    out_points, out_labels = [], []
+    for k in range(count):
+        j = (k + 1) % count
         if inside[k]:
-            out_vertices.append(vertices[k])
-            out_labels.append(labels[k])
+            out_points.append(points[k])
+            out_labels.append(edge_labels[k])
             if not inside[j]:
-                t = values[k] / (values[k] - values[j])
-                out_vertices.append(vertices[k] + t * (vertices[j] - vertices[k]))
+                out_points.append(_crossing(points[k], points[j], values[k], values[j]))
                 out_labels.append(label)
         elif inside[j]:
-            t = values[k] / (values[k] - values[j])
-            out_vertices.append(vertices[k] + t * (vertices[j] - vertices[k]))
-            out_labels.append(labels[k])
-    return _drop_repeats(np.array(out_vertices), np.array(out_labels, dtype=int))
+            out_points.append(_crossing(points[k], points[j], values[k], values[j]))
+            out_labels.append(edge_labels[k])
+    kept_points, kept_labels = [], []
+    for k, point in enumerate(out_points):  # drop zero-length edges left where the line met a vertex
+        following = out_points[(k + 1) % len(out_points)]
+        if len(out_points) == 1 or abs(following[0] - point[0]) + abs(following[1] - point[1]) > 1e-12:
+            kept_points.append(point)
+            kept_labels.append(out_labels[k])
+    return np.array(kept_points, dtype=float).reshape(-1, 2), np.array(kept_labels, dtype=int)
 
 
-def _drop_repeats(vertices: np.ndarray, labels: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
-    """Remove zero-length edges left where a clip line passed through a vertex."""
-    if len(vertices) < 2:
-        return vertices, labels
-    following = np.roll(vertices, -1, axis=0)
-    keep = np.linalg.norm(following - vertices, axis=1) > 1e-12
-    if keep.all():
-        return vertices, labels
-    return vertices[keep], labels[keep]
+def _crossing(p: list, q: list, value_p: float, value_q: float) -> list:
+    """The point where the segment p→q crosses the line on which the half-plane value is zero."""
+    t = value_p / (value_p - value_q)
+    return [p[0] + t * (q[0] - p[0]), p[1] + t * (q[1] - p[1])]
 
 
 def area(vertices: np.ndarray) -> float:
@@ -75,10 +76,16 @@ def area(vertices: np.ndarray) -> float:
     >>> area(rectangle(0, 3, 0, 2)[0])
     6.0
     """
-    if len(vertices) < 3:
+    count = len(vertices)
+    if count < 3:
         return 0.0
-    x, y = vertices[:, 0], vertices[:, 1]
-    return float(0.5 * (np.dot(x, np.roll(y, -1)) - np.dot(y, np.roll(x, -1))))
+    points = vertices.tolist()
+    total = 0.0
+    for k in range(count):
+        x0, y0 = points[k]
+        x1, y1 = points[(k + 1) % count]
+        total += x0 * y1 - x1 * y0
+    return 0.5 * total
 
 
 def contains(vertices: np.ndarray, x: float, y: float, tolerance: float = 1e-9) -> bool:
@@ -102,18 +109,19 @@ def is_convex(vertices: np.ndarray, tolerance: float = 1e-9) -> bool:
 
 def edge_half_planes(vertices: np.ndarray) -> list[tuple[float, float, float]]:
     """The half-planes a + b·x + c·y ≤ 0 whose intersection is a counter-clockwise convex polygon."""
+    points = vertices.tolist()
     planes = []
-    following = np.roll(vertices, -1, axis=0)
-    for (px, py), (qx, qy) in zip(vertices, following):
+    for k, (px, py) in enumerate(points):
+        qx, qy = points[(k + 1) % len(points)]
         dx, dy = qx - px, qy - py
-        planes.append((float(-dy * px + dx * py), float(dy), float(-dx)))
+        planes.append((-dy * px + dx * py, dy, -dx))
     return planes
 
 
-def intersect(piece: np.ndarray, polygon: np.ndarray) -> np.ndarray:
-    """The part of ``piece`` (a convex polygon, a segment or a point) inside the convex ``polygon``."""
+def intersect(piece: np.ndarray, half_planes: list[tuple[float, float, float]]) -> np.ndarray:
+    """The part of ``piece`` (a convex polygon, a segment or a point) inside a convex polygon given by its half-planes."""
     labels = np.full(len(piece), WINDOW_EDGE, dtype=int)
-    for a, b, c in edge_half_planes(polygon):
+    for a, b, c in half_planes:
         piece, labels = clip(piece, labels, a, b, c, WINDOW_EDGE)
         if len(piece) == 0:
             break
@@ -173,6 +181,8 @@ def vertical_overlap_shifts(piece: np.ndarray, polygon: np.ndarray) -> tuple[flo
     >>> vertical_overlap_shifts(np.array([[0.5, 3.0]]), square)
     (-3.0, -2.0)
     """
+    if polygon[:, 0].min() > piece[:, 0].max() + 1e-12 or polygon[:, 0].max() < piece[:, 0].min() - 1e-12:
+        return None  # no pH in common: no vertical shift can make them meet
     differences = (polygon[:, None, :] - piece[None, :, :]).reshape(-1, 2)
     hull = convex_hull(differences)
     xs, ys = hull[:, 0], hull[:, 1]

@@ -16,8 +16,7 @@ import numpy as np
 
 from .constants import thermal_voltage
 from .diagram import Diagram
-from .domains import envelope_piece
-from .geometry import WINDOW_EDGE, intersect, measure, vertical_overlap_shifts
+from .geometry import intersect, measure, vertical_overlap_shifts
 from .window import OperatingWindow
 
 TIE = 1e-9
@@ -54,18 +53,23 @@ def region_pieces(diagram: Diagram, window: OperatingWindow) -> list[Piece]:
         species = holders.pop()
         if all(_inside(diagram, species, v) for v in vertices):
             return [Piece(species.name, species.region, 1.0)]
-    low, high = vertices.min(axis=0), vertices.max(axis=0)
     sizes = []
-    for domain in diagram.domains:
-        d_low, d_high = domain.vertices.min(axis=0), domain.vertices.max(axis=0)
-        if (d_low > high + 1e-12).any() or (d_high < low - 1e-12).any():
-            continue
-        size = measure(intersect(vertices, domain.vertices), window.dimension)
+    for domain in _overlapping(diagram.domains, vertices):
+        size = measure(intersect(vertices, domain.half_planes), window.dimension)
         if size > 0:
             sizes.append((domain.species, size))
     total = sum(size for _, size in sizes)
     pieces = [Piece(s.name, s.region, size / total) for s, size in sizes if size / total > 1e-12]
     return sorted(pieces, key=lambda p: -p.fraction)
+
+
+def _overlapping(domains, vertices: np.ndarray) -> list:
+    """The domains whose bounding box meets the window's."""
+    low_x, low_y = vertices.min(axis=0).tolist()
+    high_x, high_y = vertices.max(axis=0).tolist()
+    tolerance = 1e-12
+    return [d for d in domains if not (d.bounds[0] > high_x + tolerance or d.bounds[2] < low_x - tolerance
+                                       or d.bounds[1] > high_y + tolerance or d.bounds[3] < low_y - tolerance)]
 
 
 def _inside(diagram: Diagram, species, point) -> bool:
@@ -117,13 +121,10 @@ def max_dissolved(diagram: Diagram, window: OperatingWindow) -> tuple[float | No
     planes = diagram.planes
     if not planes.dissolved.any():
         return None, None
-    solids = ~planes.dissolved
     best: tuple[float, tuple[float, float]] | None = None
-    for index in np.flatnonzero(solids):
-        piece, _ = envelope_piece(planes, int(index), window.vertices.copy(),
-                                  np.full(len(window.vertices), WINDOW_EDGE), competitors=solids)
-        for ph, e in piece:
-            value = log10_dissolved_at(diagram, int(index), ph, e)
+    for domain in _overlapping(diagram.solid_domains, window.vertices):
+        for ph, e in intersect(window.vertices, domain.half_planes).tolist():
+            value = log10_dissolved_at(diagram, domain.index, ph, e)
             if best is None or value > best[0] + 1e-12:
                 best = (value, (float(ph), float(e)))
     return best if best else (None, None)

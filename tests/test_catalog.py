@@ -55,10 +55,13 @@ def test_bad_overlay_never_changes_the_builtin_catalog(tmp_path):
 
 
 def test_overlay_replaces_one_element(tmp_path):
-    folder = _overlay(tmp_path, 'element = "Zn"\n' + ZINC_ROW)
-    catalog = load_catalog(overlay=folder)
-    assert [s.name for s in catalog.systems["Zn"].species] == ["Zn"]
-    assert catalog.systems["Fe"] is not None
+    original = (builtin_data_dir() / "species" / "Zn.toml").read_text(encoding="utf-8")
+    changed = original.replace("dgf = -318.30", "dgf = -320.00")
+    assert changed != original
+    catalog = load_catalog(overlay=_overlay(tmp_path, changed))
+    assert catalog.systems["Zn"].find("ZnO").dgf == -320.00
+    assert default_catalog().systems["Zn"].find("ZnO").dgf == -318.30
+    assert catalog.systems["Fe"] is default_catalog().systems["Fe"] or catalog.systems["Fe"].species == default_catalog().systems["Fe"].species
 
 
 def test_missing_overlay_directory(tmp_path):
