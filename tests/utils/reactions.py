@@ -11,7 +11,7 @@ from dataclasses import dataclass
 from engine.catalog import Catalog, default_catalog
 from engine.constants import KJ_PER_EV, LN10, T_STANDARD, GAS_CONSTANT
 
-_TERM = re.compile(r"^\s*(\d+(?:\.\d+)?)?\s*(\S+)\s*$")
+_TERM = re.compile(r"^\s*(?:(\d+(?:\.\d+)?)\s+)?(.+?)\s*$")
 
 
 def _species_gibbs(catalog: Catalog, name: str) -> float:
