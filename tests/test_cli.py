@@ -108,3 +108,57 @@ def test_console_script_runs_without_traceback():
                             capture_output=True, text=True, timeout=60)
     assert result.returncode == 2
     assert "unknown element" in result.stderr and "Traceback" not in result.stderr
+
+
+def test_screen_json_contract(capsys):
+    payload = run_json(capsys, "screen", "--ph", "0:1", "--potential=-0.2:0", "--role", "cathode", "--materials", "Pt,Zn")
+    assert payload["scenario"]["ph"] == [0.0, 1.0] and payload["scenario"]["materials"] == ["Pt", "Zn"]
+    for row in payload["results"]:
+        assert {"material", "rank", "fractions", "instability_ev", "log10_dissolved", "margin_mv", "reason", "hazards"} <= set(row)
+        assert set(row["fractions"]) == {"immunity", "passivation", "corrosion"}
+    assert [row["material"] for row in payload["results"]] == ["Pt", "Zn"]
+    assert payload["cautions"]
+
+
+def test_screen_csv(capsys):
+    code, out, err = run(capsys, "screen", "--ph", "14", "--potential", "1.5:1.7", "--scale", "RHE", "--family", "noble", "--csv")
+    assert code == 0, err
+    lines = out.strip().splitlines()
+    assert lines[0].startswith("rank,material,")
+    assert len(lines) == 1 + len([m for m in __import__("engine.catalog").catalog.default_catalog().materials.values()
+                                  if m.family == "noble"])
+
+
+def test_screen_human_table_shows_rule_and_cautions(capsys):
+    code, out, _ = run(capsys, "screen", "--ph", "7", "--potential", "0.2", "--materials", "Pt,Zn,Cr")
+    assert code == 0
+    assert "ranked by unacceptable" in out.replace("\n", " ")
+    assert "Cautions" in out
+
+
+def test_materials_and_sources_json(capsys):
+    materials = run_json(capsys, "materials")
+    assert len(materials) >= 40
+    assert {"id", "name", "family", "price_usd_per_kg", "abundance_mg_per_kg", "hazards"} <= set(materials[0])
+    sources = run_json(capsys, "sources", "cu")
+    assert sources["element"] == "Cu"
+    assert all(row["source"] in sources["citations"] for row in sources["species"])
+
+
+@pytest.mark.parametrize("argv, message", [
+    (["screen", "--ph", "5:1", "--potential", "0"], "inverted"),
+    (["screen", "--ph", "1:", "--potential", "0"], "a number or a range"),
+    (["screen", "--ph", "7", "--potential", "0", "--materials", "Pt,Nope"], "known materials"),
+    (["screen", "--ph", "7", "--potential", "0", "--family", "shiny"], "unknown family"),
+    (["screen", "--ph", "7", "--potential", "0", "--family", "noble", "--materials", "Pt"], "not both"),
+    (["screen", "--ph", "7", "--potential", "0", "--json", "--csv"], "one of --json and --csv"),
+    (["screen", "--ph", "7", "--potential", "0", "--accept", ","], "at least one region"),
+    (["screen", "--ph", "7", "--potential", "0", "--weights", "price"], "--weights must look like"),
+    (["screen", "--ph", "7", "--potential", "9"], "diagram's -3 to 3 V"),
+    (["screen", "--ph", "7", "--potential", "0", "--scale", "NHE"], "unknown reference scale"),
+    (["sources", "Xx"], "unknown element"),
+])
+def test_screen_bad_input(capsys, argv, message):
+    code, out, err = run(capsys, *argv)
+    assert code == 2, out
+    assert message in err and "Traceback" not in err
