@@ -12,6 +12,7 @@ from engine.catalog import default_catalog
 from engine.diagram import _cached_diagram, planes_for
 from engine.domains import Window, boundaries, stability_domains
 from engine.planes import build_planes
+from engine.screen import make_scenario, screen
 from engine.species import Species
 
 WINDOW = Window()
@@ -64,9 +65,28 @@ def growth_ms(counts=(10, 50, 200)) -> dict[str, float]:
     return figures
 
 
+SCREEN_WINDOWS = {
+    "alkaline OER anode, pH 13-14, 1.5-1.7 V vs RHE": dict(ph=[13, 14], potential=[1.5, 1.7], scale="RHE", role="anode"),
+    "acid cathode, pH 0-1, -0.2-0 V vs SHE": dict(ph=[0, 1], potential=[-0.2, 0.0], role="cathode"),
+    "wide window, pH 0-14, 0.2-1.0 V vs SHE": dict(ph=[0, 14], potential=[0.2, 1.0], role="anode"),
+}
+
+
+def screen_ms() -> dict[str, float]:
+    """Median time to screen the whole catalog for one window [ms], diagrams cached (they depend only on element, T, a)."""
+    catalog = default_catalog()
+    figures = {}
+    for name, window in SCREEN_WINDOWS.items():
+        scenario = make_scenario(**window, catalog=catalog)
+        figures[name] = round(median_ms(lambda: screen(scenario, catalog), repeats=20), 3)
+    figures["materials"] = len(catalog.materials)
+    return figures
+
+
 def engine_figures() -> dict:
     """All engine figures as one dict."""
     return {
-        "diagram_ms_median": {element: round(diagram_ms(element), 3) for element in ("Zn", "Fe")},
+        "diagram_ms_median": {element: round(diagram_ms(element), 3) for element in ("Zn", "Fe", "Mn")},
         "diagram_ms_by_species_count": growth_ms(),
+        "screen_catalog_ms_median": screen_ms(),
     }

@@ -121,28 +121,51 @@ def gas_evolution(window: OperatingWindow, water) -> list[dict]:
     return hazards
 
 
-def screen_material(catalog: Catalog, scenario: Scenario, material: Material, window: OperatingWindow) -> dict:
-    """All metrics of one candidate (unranked)."""
-    result = diagram(material.element, scenario.activity, scenario.temperature, catalog=catalog)
+@dataclass(frozen=True)
+class ElementVerdict:
+    """What the window meets on one element's diagram: shared by every material of that element."""
+
+    pieces: list
+    fractions: dict
+    dissolved: float | None
+    dissolved_at: tuple[float, float] | None
+    margin: float
+    margin_capped: bool
+    gas: list
+
+
+def judge_element(catalog: Catalog, scenario: Scenario, element: str, window: OperatingWindow) -> ElementVerdict:
+    """Region shares, largest dissolved metal, potential margin and gas evolution for one element."""
+    result = diagram(element, scenario.activity, scenario.temperature, catalog=catalog)
     pieces = region_pieces(result, window)
-    fractions = region_fractions(pieces)
-    energy, energy_at = instability(result, window, material.phase)
     dissolved, dissolved_at = max_dissolved(result, window)
     margin, capped = potential_margin(result, window, set(scenario.accept))
-    met = {p.species for p in pieces}
+    return ElementVerdict(pieces=pieces, fractions=region_fractions(pieces), dissolved=dissolved,
+                          dissolved_at=dissolved_at, margin=margin, margin_capped=capped,
+                          gas=gas_evolution(window, result.water))
+
+
+def screen_material(catalog: Catalog, scenario: Scenario, material: Material, window: OperatingWindow,
+                    verdict: ElementVerdict) -> dict:
+    """All metrics of one candidate (unranked), given its element's verdict."""
+    result = diagram(material.element, scenario.activity, scenario.temperature, catalog=catalog)
+    energy, energy_at = instability(result, window, material.phase)
+    fractions = verdict.fractions
+    met = {p.species for p in verdict.pieces}
     hazards = [{"kind": "toxic", "species": h.species, "note": h.note} for h in material.hazards if h.species in met]
     row = {
         "material": material.id, "name": material.name, "element": material.element, "phase": material.phase,
         "family": material.family,
-        "fractions": fractions,
+        "fractions": dict(fractions),
         "unacceptable_fraction": round(sum(v for k, v in fractions.items() if k not in scenario.accept), 12),
-        "stable_phases": [{"species": p.species, "region": p.region, "fraction": round(p.fraction, 9)} for p in pieces],
+        "stable_phases": [{"species": p.species, "region": p.region, "fraction": round(p.fraction, 9)}
+                          for p in verdict.pieces],
         "window_dimension": window.dimension,
         "instability_ev": round(energy, 9), "instability_at": list(energy_at),
-        "log10_dissolved": None if dissolved is None else round(dissolved, 6),
-        "dissolved_at": None if dissolved_at is None else list(dissolved_at),
-        "margin_mv": round(1000 * margin, 3), "margin_capped": capped,
-        "hazards": hazards + gas_evolution(window, result.water),
+        "log10_dissolved": None if verdict.dissolved is None else round(verdict.dissolved, 6),
+        "dissolved_at": None if verdict.dissolved_at is None else list(verdict.dissolved_at),
+        "margin_mv": round(1000 * verdict.margin, 3), "margin_capped": verdict.margin_capped,
+        "hazards": hazards + [dict(h) for h in verdict.gas],
         "price_usd_per_kg": material.price_usd_per_kg, "price_year": material.price_year,
     }
     unacceptable = row["unacceptable_fraction"]
@@ -163,7 +186,10 @@ def screen(scenario: Scenario, catalog: Catalog | None = None) -> dict:
     """The ranked results of every candidate for ``scenario``."""
     catalog = catalog or default_catalog()
     window = operating_window(catalog.scales, scenario.ph, scenario.potential, scenario.scale, scenario.temperature, Window())
-    rows = [screen_material(catalog, scenario, m, window) for m in candidates(catalog, scenario)]
+    chosen = candidates(catalog, scenario)
+    verdicts = {element: judge_element(catalog, scenario, element, window)
+                for element in dict.fromkeys(m.element for m in chosen)}
+    rows = [screen_material(catalog, scenario, m, window, verdicts[m.element]) for m in chosen]
     ranked = rank(rows, scenario.rank_by, scenario.weights or None)
     return {
         "scenario": scenario.echo(),
