@@ -86,13 +86,13 @@ def check_window(window: Window) -> Window:
 
 def water_gibbs(catalog: Catalog, temperature_k: float) -> float:
     """ΔGf°(H2O, l) [kJ/mol] at ``temperature_k`` [K] from the water file."""
-    return formation_gibbs(catalog.water["H2O"], temperature_k)
+    return formation_gibbs(catalog.water["H2O"], temperature_k, catalog)
 
 
 def planes_for(system: ElementSystem, catalog: Catalog, activity: float, temperature_c: float) -> Planes:
     """The free-energy planes of every species of ``system``."""
     temperature_k = temperature_c + ZERO_CELSIUS
-    return build_planes(system.species, water_gibbs(catalog, temperature_k), activity, temperature_k)
+    return build_planes(system.species, water_gibbs(catalog, temperature_k), activity, temperature_k, catalog)
 
 
 def diagram(element: str, activity: float = DEFAULT_ACTIVITY, temperature_c: float = 25.0,

@@ -37,10 +37,11 @@ class Planes:
 
 
 def build_planes(species: tuple[Species, ...], water_gibbs: float, activity: float,
-                 temperature_k: float = T_STANDARD) -> Planes:
+                 temperature_k: float = T_STANDARD, catalog=None) -> Planes:
     """Planes for ``species`` with dissolved species at ``activity``.
 
-    ``water_gibbs`` is ΔGf°(H2O, l) [kJ/mol] at ``temperature_k`` [K].
+    ``water_gibbs`` is ΔGf°(H2O, l) [kJ/mol] at ``temperature_k`` [K]; ``catalog`` supplies the
+    element and water data that temperature corrections need (the built-in catalog by default).
 
     >>> from engine.species import Species
     >>> zinc = Species.create("Zn", formula="Zn", charge=0, phase="solid", dgf=0.0, source="x")
@@ -55,7 +56,7 @@ def build_planes(species: tuple[Species, ...], water_gibbs: float, activity: flo
     offset, ph_slope, e_slope = [], [], []
     for s in species:
         m = s.metal_atoms
-        energy = (formation_gibbs(s, temperature_k) - s.oxygen_atoms * water_gibbs) / KJ_PER_EV
+        energy = (formation_gibbs(s, temperature_k, catalog) - s.oxygen_atoms * water_gibbs) / KJ_PER_EV
         if s.is_dissolved:
             energy += kt * log_activity
         offset.append(energy / m)
