@@ -112,6 +112,9 @@ def _print_diagram(payload: dict) -> None:
     lines.add_row("H2/H2O (1 bar)", payload["water"]["hydrogen"]["equation"])
     lines.add_row("O2/H2O (1 bar)", payload["water"]["oxygen"]["equation"])
     console.print(lines)
+    console.print(f"{payload['conditions']} Neutral pH {payload['water']['neutral_ph']:.2f}.")
+    for note in payload["temperature_notes"]:
+        console.print(f" - {note}")
 
 
 def cmd_point(args) -> None:
@@ -252,6 +255,10 @@ def _print_screen(result: dict) -> None:
                       f"{row['margin_mv']:.0f}" + ("+" if row["margin_capped"] and row["margin_mv"] > 0 else ""),
                       "-" if price is None else f"{price:,.0f}", row["reason"])
     console.print(table)
+    console.print(f"{result['conditions']} Neutral pH {result['neutral_ph']:.2f}.")
+    if result["temperature_notes"]:
+        console.print("Approximations used away from 25 °C (see `electrosieve diagram ELEMENT --temperature T`): "
+                      f"{sum(len(v) for v in result['temperature_notes'].values())} species notes in --json output.")
     flagged = [(row["material"], h) for row in result["results"] for h in row["hazards"] if h["kind"] == "toxic"]
     for material, hazard in flagged:
         console.print(f"[bold]hazard[/bold] {material}: {hazard['species']} - {hazard['note']}")

@@ -3,6 +3,8 @@
 from engine.catalog import Catalog
 from engine.diagram import Diagram
 from engine.species import Species
+from engine.thermo import temperature_notes
+from engine.water import conditions_note
 
 
 def species_payload(species: Species) -> dict:
@@ -36,7 +38,11 @@ def diagram_payload(diagram: Diagram, catalog: Catalog) -> dict:
             "oxygen": {"intercept": water.oxygen_intercept, "slope": -water.slope,
                        "equation": f"E = {water.oxygen_intercept:.4f} - {water.slope:.4f} pH"},
             "pressure_bar": 1.0,
+            "neutral_ph": round(water.neutral_ph, 4),
         },
+        "conditions": conditions_note(diagram.temperature_c),
+        "temperature_notes": [] if diagram.temperature_c == 25.0 else temperature_notes(
+            catalog.systems[diagram.element].species, catalog),
         "catalog_version": catalog.version,
     }
 

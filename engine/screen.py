@@ -16,6 +16,8 @@ from .errors import InputError
 from .materials import FAMILIES, Material
 from .metrics import (instability, max_dissolved, potential_margin, region_fractions, region_pieces)
 from .ranking import DEFAULT_ORDER, RANK_KEYS, check_order, check_weights, rank, reason
+from .thermo import temperature_notes
+from .water import conditions_note
 from .window import OperatingWindow, operating_window
 
 ROLES = ("anode", "cathode")
@@ -191,12 +193,17 @@ def screen(scenario: Scenario, catalog: Catalog | None = None) -> dict:
                 for element in dict.fromkeys(m.element for m in chosen)}
     rows = [screen_material(catalog, scenario, m, window, verdicts[m.element]) for m in chosen]
     ranked = rank(rows, scenario.rank_by, scenario.weights or None)
+    water = diagram(chosen[0].element, scenario.activity, scenario.temperature, catalog=catalog).water
     return {
         "scenario": scenario.echo(),
         "rule": rule_text(scenario),
         "window": {"vertices_she": [[round(float(x), 6), round(float(y), 6)] for x, y in window.vertices],
                    "dimension": window.dimension},
         "catalog_version": catalog.version,
+        "conditions": conditions_note(scenario.temperature),
+        "neutral_ph": round(water.neutral_ph, 4),
+        "temperature_notes": {} if scenario.temperature == 25.0 else {
+            element: temperature_notes(catalog.systems[element].species, catalog) for element in verdicts},
         "results": ranked,
     }
 
