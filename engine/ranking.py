@@ -123,7 +123,7 @@ def reason(row: dict) -> str:
     text = f"{where}; {tail}"
     dissolved = row["log10_dissolved"]
     if dissolved is not None and dissolved >= 0:
-        text += "; no solid holds the metal somewhere in the window (equilibrium dissolved metal above 1 M)"
+        text += "; somewhere in the window no solid holds the metal (equilibrium dissolved metal above 1 M)"
     elif dissolved is not None and dissolved > -6 + 1e-9:
         text += f"; dissolved metal up to 10^{dissolved:.1f} M"
     return text

@@ -28,7 +28,7 @@ SPECIES_CHECKSUMS = {
     "Pt.toml": (5, -74.1),
     "Re.toml": (6, -2582.5),
     "Rh.toml": (4, -43.2),
-    "Ru.toml": (7, -1073.2),
+    "Ru.toml": (7, -1067.9),
     "Sb.toml": (8, -3715.5),
     "Sn.toml": (9, -2520.95),
     "Ta.toml": (2, -1911.2),
