@@ -156,6 +156,21 @@ def _boundary(planes: Planes, i: int, j: int, start: np.ndarray, end: np.ndarray
     return Boundary(first, second, *points, intercept=None, slope=None, ph=float(-d_offset / d_ph))
 
 
+TIE = 1e-9
+"""Two Φ values closer than this [eV] are equal: the point lies on a boundary."""
+
+SEVERITY = {"immunity": 0, "passivation": 1, "corrosion": 2}
+"""On a boundary a point takes the less noble side: corrosion over passivation over immunity."""
+
+
 def stable_index_at(planes: Planes, ph: float, potential: float) -> int:
-    """Index of the species with the lowest Φ at (pH, E vs SHE [V]); ties go to the earliest in catalog order."""
-    return int(np.argmin(planes.at(ph, potential)))
+    """Index of the species with the lowest Φ at (pH, E vs SHE [V]).
+
+    On a boundary (Φ tied within :data:`TIE`) the species of the most severe region wins
+    (:data:`SEVERITY`), then the earliest in catalog order: a documented, conservative answer.
+    """
+    values = planes.at(ph, potential)
+    tied = np.flatnonzero(values <= values.min() + TIE)
+    if len(tied) == 1:
+        return int(tied[0])
+    return int(max(tied, key=lambda i: (SEVERITY[planes.species[i].region], -i)))

@@ -16,14 +16,10 @@ import numpy as np
 
 from .constants import thermal_voltage
 from .diagram import Diagram
+from .domains import SEVERITY, TIE
 from .geometry import intersect, measure, vertical_overlap_shifts
 from .window import OperatingWindow
 
-TIE = 1e-9
-"""Two Φ values closer than this [eV] are equal: the point lies on a boundary."""
-
-SEVERITY = {"immunity": 0, "passivation": 1, "corrosion": 2}
-"""On a boundary a point takes the less noble side: corrosion over passivation over immunity."""
 
 
 @dataclass(frozen=True)
@@ -35,18 +31,11 @@ class Piece:
     fraction: float
 
 
-def stable_at_point(diagram: Diagram, ph: float, potential: float):
-    """The stable species at a point; on a boundary, the species of the most severe region (see SEVERITY)."""
-    values = diagram.planes.at(ph, potential)
-    tied = np.flatnonzero(values <= values.min() + TIE)
-    return max((diagram.planes.species[i] for i in tied), key=lambda s: SEVERITY[s.region])
-
-
 def region_pieces(diagram: Diagram, window: OperatingWindow) -> list[Piece]:
     """Each species' share of the window, largest first; shares sum to 1."""
     vertices = window.vertices
     if window.dimension == 0:
-        species = stable_at_point(diagram, *vertices[0])
+        species = diagram.stable_species_at(*vertices[0])
         return [Piece(species.name, species.region, 1.0)]
     holders = {diagram.stable_species_at(*v) for v in vertices}
     if len(holders) == 1:

@@ -162,3 +162,12 @@ def test_screen_bad_input(capsys, argv, message):
     code, out, err = run(capsys, *argv)
     assert code == 2, out
     assert message in err and "Traceback" not in err
+
+
+def test_point_on_a_boundary_is_the_less_noble_side(capsys):
+    # Zn/Zn2+ at 10^-6: E = -0.7621 + 0.02958 log(1e-6) = -0.9396 V (Nernst; E° from the catalog, -0.762 V in Bard 1985).
+    from engine.diagram import diagram
+
+    line = next(b for b in diagram("Zn").boundaries if {b.first.name, b.second.name} == {"Zn", "Zn^2+"})
+    payload = run_json(capsys, "point", "Zn", "--ph", "3", f"--potential={line.intercept!r}")
+    assert payload["region"] == "corrosion"

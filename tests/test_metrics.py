@@ -9,7 +9,7 @@ from engine.catalog import default_catalog
 from engine.diagram import diagram
 from engine.domains import Window
 from engine.metrics import (instability, log10_dissolved_at, max_dissolved, potential_margin, region_fractions,
-                            region_pieces, stable_at_point)
+                            region_pieces)
 from engine.window import operating_window
 
 CATALOG = default_catalog()
@@ -95,9 +95,9 @@ def test_point_on_a_boundary_takes_the_less_noble_side():
     # Zn/Zn2+ at 10^-6 lies at E = -0.7621 - 0.1775 = -0.9396 V (Nernst); exactly on it the point reports corrosion
     result = diagram("Zn")
     line = next(b for b in result.boundaries if {b.first.name, b.second.name} == {"Zn", "Zn^2+"})
-    assert stable_at_point(result, 3.0, line.intercept).name == "Zn^2+"
+    assert result.stable_species_at(3.0, line.intercept).name == "Zn^2+"
     assert region_pieces(result, _window(3.0, line.intercept))[0].region == "corrosion"
-    assert stable_at_point(result, 3.0, line.intercept - 1e-6).name == "Zn"
+    assert result.stable_species_at(3.0, line.intercept - 1e-6).name == "Zn"
 
 
 def test_segment_fractions_are_by_length():
@@ -143,7 +143,7 @@ def test_margin_matches_a_scan_of_shifts(element, ph, ph_width, e, e_width, acce
     samples = np.vstack([_grid(window, 12), window.vertices])
 
     def acceptable(shift):
-        return all(stable_at_point(result, x, y + shift).region in accept for x, y in samples)
+        return all(result.stable_species_at(x, y + shift).region in accept for x, y in samples)
 
     if margin > 0.004:
         assert acceptable(0.0)
