@@ -48,3 +48,18 @@ def test_unknown_scale_lists_known_ones():
 def test_rhe_needs_ph():
     with pytest.raises(InputError, match="needs the pH"):
         to_she(SCALES, 0.0, "RHE")
+
+
+def test_reference_moves_with_its_temperature_coefficient():
+    # SCE at 50 °C: 0.2412 V - 0.66 mV/K x 25 K (Sawyer, Sobkowiak & Roberts 1995, ch. 5, from memory)
+    assert to_she(SCALES, 0.0, "SCE", temperature_k=323.15) == pytest.approx(0.2412 - 0.00066 * 25, abs=1e-9)
+
+
+def test_scale_outside_its_tabulated_range_is_refused():
+    with pytest.raises(InputError, match="tabulated only from 0 to 60 °C"):
+        to_she(SCALES, 0.0, "SCE", temperature_k=273.15 + 90)
+
+
+def test_rhe_slope_follows_temperature():
+    # RT ln10 / F at 80 °C = 0.07007 V per pH unit (common practice)
+    assert to_she(SCALES, 0.0, "RHE", ph=10, temperature_k=353.15) == pytest.approx(-10 * 0.070071, abs=2e-5)
