@@ -11,13 +11,13 @@ import math
 from .errors import InputError
 
 RANK_KEYS = {
-    "unacceptable": "share of the window outside the acceptable regions (lower is better)",
-    "instability": "free energy of the candidate's phase above the stable state, eV per metal atom (lower is better)",
-    "dissolved": "largest equilibrium dissolved metal, log10 mol/kg (lower is better)",
-    "price": "price per kg, USD (lower is better; unknown prices last)",
-    "margin": "potential margin before an unacceptable region, mV (higher is better)",
+    "unacceptable": "least window share outside the acceptable regions",
+    "instability": "least free energy of the candidate's own phase above the stable state",
+    "dissolved": "least equilibrium dissolved metal",
+    "price": "lowest price per kg (unknown prices last)",
+    "margin": "widest potential margin before an unacceptable region",
 }
-"""What each ranking key compares."""
+"""What each ranking key prefers."""
 
 DEFAULT_ORDER = ("unacceptable", "instability", "dissolved", "price")
 

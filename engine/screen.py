@@ -181,7 +181,7 @@ def rule_text(scenario: Scenario) -> str:
     if scenario.weights:
         parts = [f"{weight:g} × {key}" for key, weight in scenario.weights.items()]
         return "lowest weighted score first: " + " + ".join(parts) + " (each key scaled 0-1 across candidates)"
-    return "ranked by " + ", then ".join(f"{key} ({RANK_KEYS[key]})" for key in scenario.rank_by)
+    return "Ranked by " + ", then ".join(RANK_KEYS[key] for key in scenario.rank_by) + "."
 
 
 def screen(scenario: Scenario, catalog: Catalog | None = None) -> dict:
