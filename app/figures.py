@@ -16,6 +16,7 @@ REGION_STYLE = {
 
 WATER_STYLE = {"color": "#1b1b1b", "dash": "dash", "width": 1.6}
 WINDOW_STYLE = {"color": "#6a3d9a", "width": 2.5}
+WINDOW_FILL = "rgba(106, 61, 154, 0.10)"
 
 
 def diagram_figure(payload: dict, *, operating_window: list[list[float]] | None = None,
@@ -60,8 +61,9 @@ def diagram_figure(payload: dict, *, operating_window: list[list[float]] | None 
     if operating_window:
         xs = [p[0] for p in operating_window] + [operating_window[0][0]]
         ys = [on_scale(*p) for p in operating_window] + [on_scale(*operating_window[0])]
-        figure.add_trace(go.Scatter(x=xs, y=ys, mode="lines+markers", line=WINDOW_STYLE,
-                                    marker={"size": 5}, name="operating window", hoverinfo="name"))
+        figure.add_trace(go.Scatter(x=xs, y=ys, mode="lines+markers", line=WINDOW_STYLE, fill="toself",
+                                    fillcolor=WINDOW_FILL, marker={"size": 5}, name="operating window",
+                                    hoveron="points+fills", hoverinfo="name"))
     e_range = payload["window"]["potential"]
     figure.update_layout(
         title=title or f"{payload['element']}: E–pH diagram, dissolved species at {payload['activity']:g}, "
@@ -84,3 +86,32 @@ def write_figure(figure: go.Figure, path: str) -> None:
         figure.write_image(path, width=900, height=650)
     else:
         raise ValueError("--out must end in .svg, .png or .html")
+
+
+def axis_offsets(scales: dict, scale_id: str, temperature_c: float) -> tuple[float, float]:
+    """(potential_offset, offset_slope) that put the potential axis on ``scale_id`` (see :func:`diagram_figure`).
+
+    A fixed reference sits at E_X vs SHE (``engine.scales.scale_offset``); the RHE moves with pH by the
+    Nernst slope (``engine.constants.nernst_slope``), so E_RHE = E_SHE + slope·pH.
+    """
+    from engine.constants import ZERO_CELSIUS, nernst_slope
+    from engine.scales import needs_ph, scale_offset
+
+    temperature_k = temperature_c + ZERO_CELSIUS
+    offset = scale_offset(scales, scale_id, temperature_k)
+    slope = nernst_slope(temperature_k) if needs_ph(scales, scale_id) else 0.0
+    return offset, slope
+
+
+def figure_dict(payload: dict, *, scales: dict, scale_id: str = "SHE", operating_window=None,
+                title: str | None = None) -> dict:
+    """The figure of a diagram payload as plain JSON (``data`` and ``layout``) for plotly.js in the page."""
+    import json
+
+    offset, slope = axis_offsets(scales, scale_id, payload["temperature_c"])
+    figure = diagram_figure(payload, operating_window=operating_window, title=title, potential_offset=offset,
+                            scale=scale_id, offset_slope=slope)
+    figure.update_layout(template=None, plot_bgcolor="#ffffff", paper_bgcolor="#ffffff",
+                         xaxis={"showline": True, "linecolor": "#444", "ticks": "outside", "mirror": True},
+                         yaxis={"showline": True, "linecolor": "#444", "ticks": "outside", "mirror": True})
+    return json.loads(figure.to_json())

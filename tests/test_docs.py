@@ -28,8 +28,9 @@ def _paths(routes) -> set[str]:
     for route in routes:
         if hasattr(route, "path") and getattr(route, "include_in_schema", True):
             found.add(route.path)
-        if hasattr(route, "routes"):
-            found |= _paths(route.routes)
+        inner = getattr(route, "original_router", route)  # FastAPI wraps included routers
+        if hasattr(inner, "routes"):
+            found |= _paths(inner.routes)
     return found
 
 

@@ -1,0 +1,61 @@
+"""The web app, assembled: routers, static files, plotly.js from the plotly package, middleware, error handlers.
+
+``app`` is what uvicorn serves (``uvicorn app.main:app``); ``create_app`` builds
+another one, e.g. with a test catalog. Nothing is loaded or opened at import
+time: the catalog and the database are made on first use.
+"""
+
+from contextlib import asynccontextmanager
+from importlib import resources
+from pathlib import Path
+
+import plotly
+from fastapi import FastAPI
+from fastapi.exceptions import RequestValidationError
+from fastapi.staticfiles import StaticFiles
+from starlette.exceptions import HTTPException as StarletteHTTPException
+
+from engine.catalog import Catalog
+
+from .routes import api, compare, docs, health, materials, screen, shortlists
+from .routes.common import AppState
+from .routes.http import BodyLimit, SecurityHeaders, http_error, unexpected_error, validation_error
+from .settings import Settings
+
+PLOTLY_DIR = Path(plotly.__file__).resolve().parent / "package_data"
+"""Where the plotly wheel keeps its own plotly.min.js (served at /vendor, so no CDN is needed)."""
+
+
+def static_dir() -> Path:
+    """The ``static/`` directory (installed as the package ``electrosieve_static``)."""
+    return Path(str(resources.files("electrosieve_static")))
+
+
+def create_app(settings: Settings | None = None, catalog: Catalog | None = None) -> FastAPI:
+    """A new app reading ``settings`` (from the environment by default) and serving ``catalog`` (built-in by default)."""
+    settings = settings or Settings.from_env()
+    state = AppState(settings, catalog)
+
+    @asynccontextmanager
+    async def lifespan(_app):
+        yield
+        state.close()
+
+    app = FastAPI(title="electrosieve", version="0.1.0", lifespan=lifespan, docs_url=None, redoc_url=None,
+                  description="Screen electrode materials by exact E-pH stability domains computed from cited "
+                              "thermodynamic data. Every page has a JSON twin; the API mirrors the CLI's --json.")
+    app.state.electrosieve = state
+    for router in (screen.router, compare.router, materials.router, shortlists.router, api.router, health.router,
+                   docs.router):
+        app.include_router(router)
+    app.mount("/static", StaticFiles(directory=static_dir()), name="static")
+    app.mount("/vendor", StaticFiles(directory=PLOTLY_DIR), name="vendor")
+    app.add_exception_handler(RequestValidationError, validation_error)
+    app.add_exception_handler(StarletteHTTPException, http_error)
+    app.add_exception_handler(Exception, unexpected_error)
+    app.add_middleware(BodyLimit, max_bytes=settings.max_body_bytes)
+    app.add_middleware(SecurityHeaders)
+    return app
+
+
+app = create_app()

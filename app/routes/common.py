@@ -1,0 +1,210 @@
+"""What every router shares: the catalog and storage of the running app, templates, errors, CSV.
+
+Routers call the engine and ``app.payloads`` through the helpers here; none of
+them computes any science itself.
+"""
+
+import csv
+import io
+import threading
+from pathlib import Path
+
+from fastapi import HTTPException, Query, Request
+from fastapi.responses import HTMLResponse, Response
+from jinja2 import Environment, FileSystemLoader, select_autoescape
+from starlette.templating import Jinja2Templates
+
+from engine.catalog import Catalog, default_catalog, load_catalog
+from engine.errors import ElectrosieveError
+from engine.screen import make_scenario, screen
+
+from .. import urls
+from ..cautions import CAUTIONS
+from ..cli import CSV_COLUMNS, csv_rows, screen_payload
+from ..models import ENGINE_FIELD_TO_PARAM, ErrorBody, FieldError, ScenarioIn, ViewQuery
+from ..settings import Settings
+from ..storage import open_storage
+
+TEMPLATES_DIR = Path(__file__).resolve().parent.parent / "templates"
+
+ERROR_RESPONSES = {
+    404: {"model": ErrorBody, "description": "no such item"},
+    413: {"model": ErrorBody, "description": "request body too large"},
+    422: {"model": ErrorBody, "description": "bad input; each entry names its field"},
+}
+"""The 4xx responses declared on JSON routes (so the OpenAPI schema says what really comes back)."""
+
+BODY_RESPONSES = {**ERROR_RESPONSES, 400: {"model": ErrorBody, "description": "the body could not be read (not UTF-8)"}}
+"""The 4xx responses of routes that read a request body."""
+
+_HTML_OR_JSON = {"text/html": {"schema": {"type": "string"}},
+                 "application/json": {"schema": {"$ref": "#/components/schemas/ErrorBody"}}}
+HTML_RESPONSES = {
+    404: {"description": "no such page (HTML for browsers, the JSON error body otherwise)", "content": _HTML_OR_JSON},
+    422: {"description": "the page showing which query parameter is wrong (HTML for browsers, the JSON error body "
+                         "otherwise)", "content": _HTML_OR_JSON},
+}
+"""The 4xx responses of pages: HTML when the client accepts text/html, else the JSON error body."""
+CSV_RESPONSES = {200: {"content": {"text/csv": {}}, "description": "CSV, one row per ranked candidate"},
+                 404: ERROR_RESPONSES[404], 422: ERROR_RESPONSES[422]}
+
+
+class AppState:
+    """The running app's settings, catalog and storage engine, each made on first use (imports stay cheap)."""
+
+    def __init__(self, settings: Settings, catalog: Catalog | None = None):
+        self.settings = settings
+        self._catalog = catalog
+        self._storage = None
+        self._lock = threading.Lock()
+
+    @property
+    def catalog(self) -> Catalog:
+        if self._catalog is None:
+            with self._lock:
+                if self._catalog is None:
+                    directory = self.settings.catalog_dir
+                    self._catalog = load_catalog(data_dir=directory) if directory else default_catalog()
+        return self._catalog
+
+    @property
+    def storage(self):
+        if self._storage is None:
+            with self._lock:
+                if self._storage is None:
+                    self._storage = open_storage(url=self.settings.storage_url)
+        return self._storage
+
+    def close(self) -> None:
+        if self._storage is not None:
+            self._storage.dispose()
+            self._storage = None
+
+
+def state(request: Request) -> AppState:
+    return request.app.state.electrosieve
+
+
+def get_catalog(request: Request) -> Catalog:
+    """Dependency: the catalog the app serves."""
+    return state(request).catalog
+
+
+def get_storage(request: Request):
+    """Dependency: the SQLAlchemy engine shortlists live in."""
+    return state(request).storage
+
+
+def _environment() -> Environment:
+    env = Environment(loader=FileSystemLoader(str(TEMPLATES_DIR)), autoescape=select_autoescape(default=True),
+                      trim_blocks=True, lstrip_blocks=True)
+    env.globals["urls"] = urls
+    env.filters["fmt"] = number_text
+    env.filters["percent"] = lambda value: number_text(None if value is None else 100 * value, ".0f")
+    return env
+
+
+def number_text(value, spec: str = "g", missing: str = "–") -> str:
+    """``format(value, spec)`` for templates; ``missing`` for None."""
+    if value is None:
+        return missing
+    return format(value, spec)
+
+
+templates = Jinja2Templates(env=_environment())
+
+
+def render(request: Request, template: str, context: dict, *, status_code: int = 200,
+           json_twin: str | None = None) -> HTMLResponse:
+    """A page from ``template``; ``json_twin`` is linked as <link rel="alternate" type="application/json">."""
+    catalog = state(request).catalog
+    return templates.TemplateResponse(request, template, {
+        **context, "json_twin": json_twin, "catalog_version": catalog.version, "cautions": list(CAUTIONS),
+    }, status_code=status_code)
+
+
+# --- errors -------------------------------------------------------------------------------
+
+class Unprocessable(HTTPException):
+    """A 422 whose detail lists FieldErrors (the same shape FastAPI uses for validation errors)."""
+
+    def __init__(self, errors: list[FieldError]):
+        super().__init__(status_code=422, detail=[e.model_dump() for e in errors])
+        self.errors = errors
+
+
+def engine_error(error: ElectrosieveError, where: str | list, rename: dict | None = None) -> FieldError:
+    """An engine error as a FieldError located at ``where`` (``"body"``, ``"query"``, ``"path"``, or a list
+    such as ``["body", "scenario"]``), its field renamed by ``rename`` when the interface calls it otherwise."""
+    field = error.field or "input"
+    field = (rename or {}).get(field, field)
+    prefix = [where] if isinstance(where, str) else list(where)
+    dotted = ".".join([*prefix[1:], field])
+    message = error.message if error.message.startswith(field) else f"{dotted}: {error.message}"
+    return FieldError(loc=[*prefix, field], msg=message)
+
+
+def not_found(what: str) -> HTTPException:
+    return HTTPException(status_code=404, detail=[{"loc": ["path"], "msg": what, "type": "not_found"}])
+
+
+# --- screening --------------------------------------------------------------------------
+
+def run_screen(scenario: ScenarioIn, catalog: Catalog, *, where: str | list = "body", rename: dict | None = None) -> dict:
+    """The screen payload (``app.cli.screen_payload`` of ``engine.screen.screen``) or an :class:`Unprocessable`."""
+    if not catalog.materials:
+        raise Unprocessable([FieldError(loc=[*([where] if isinstance(where, str) else where), "materials"],
+                                        msg="materials: the catalog has no materials (data/materials.toml is missing)")])
+    try:
+        checked = make_scenario(**scenario.engine_arguments(), catalog=catalog)
+        return screen_payload(screen(checked, catalog))
+    except ElectrosieveError as error:
+        raise Unprocessable([engine_error(error, where, rename)]) from None
+
+
+def screen_view(view: ViewQuery, catalog: Catalog) -> tuple[dict | None, list[FieldError]]:
+    """The screen result a page's view asks for, or the errors naming its query parameters."""
+    scenario, errors = view.scenario_in()
+    if errors:
+        return None, errors
+    try:
+        return run_screen(scenario, catalog, where="query", rename=ENGINE_FIELD_TO_PARAM), []
+    except Unprocessable as problem:
+        return None, problem.errors
+
+
+def csv_response(result: dict, filename: str, notes: dict | None = None) -> Response:
+    """The ranked rows as CSV (``app.cli.csv_rows``), with a ``note`` column when notes are given."""
+    stream = io.StringIO()
+    columns = list(CSV_COLUMNS) + (["note"] if notes is not None else [])
+    writer = csv.DictWriter(stream, fieldnames=columns, lineterminator="\n")
+    writer.writeheader()
+    for row in csv_rows(result):
+        if notes is not None:
+            row["note"] = notes.get(row["material"], "")
+        writer.writerow(row)
+    return Response(stream.getvalue(), media_type="text/csv; charset=utf-8",
+                    headers={"Content-Disposition": f'attachment; filename="{filename}"'})
+
+
+# --- the view state as documented query parameters --------------------------------------
+
+def view_query(
+    request: Request,
+    ph_low: str | None = Query(None, max_length=40, description="pH, or the low end of a pH range"),
+    ph_high: str | None = Query(None, max_length=40, description="high end of the pH range (empty: a point)"),
+    potential_low: str | None = Query(None, max_length=40, description="potential [V on `scale`], or the low end"),
+    potential_high: str | None = Query(None, max_length=40, description="high end of the potential range (empty: a point)"),
+    scale: str | None = Query(None, max_length=40, description="reference scale of the potential"),
+    temperature: str | None = Query(None, max_length=40, description="temperature [°C]"),
+    activity: str | None = Query(None, max_length=40, description="activity of dissolved species"),
+    role: str | None = Query(None, max_length=40, description="anode or cathode"),
+    accept: list[str] = Query([], description="acceptable regions (repeat)"),
+    pick: str | None = Query(None, max_length=40, description="all, family or names"),
+    family: str | None = Query(None, max_length=40, description="a material family"),
+    materials: list[str] = Query([], description="material ids (repeat)"),
+    rank_by: str | None = Query(None, max_length=200, description="ranking keys, comma-separated"),
+    weights: str | None = Query(None, max_length=200, description="key:weight pairs, comma-separated"),
+) -> ViewQuery:
+    """Dependency: the page's view state (declared here so the OpenAPI schema lists every parameter)."""
+    return ViewQuery.from_params(request.query_params)

@@ -1,0 +1,168 @@
+"""HTTP plumbing shared by every route: security headers, the request-body cap, and error responses.
+
+- Every response carries a strict Content-Security-Policy (``script-src 'self'``: the pages use no
+  inline script and no inline event handler) and the usual hardening headers.
+- A request body larger than the cap (``Settings.max_body_bytes``) gets 413, whether announced by
+  Content-Length or streamed.
+- Errors are JSON ``{"detail": [{"loc": [...], "msg": ..., "type": ...}]}`` for the API, the JSON twins
+  and CSV downloads, and a readable HTML page for the pages; never a traceback, never NaN in a body.
+"""
+
+import json
+
+from fastapi import HTTPException, Request
+from fastapi.exceptions import RequestValidationError
+from fastapi.responses import JSONResponse
+from starlette.exceptions import HTTPException as StarletteHTTPException
+
+from .. import urls
+from ..models import UNION_TAG, FieldError
+
+CONTENT_SECURITY_POLICY = "; ".join([
+    "default-src 'self'",
+    "script-src 'self'",
+    # plotly.js writes style attributes and one <style> element at run time
+    "style-src 'self' 'unsafe-inline'",
+    "img-src 'self' data: blob:",
+    "font-src 'self'",
+    "connect-src 'self'",
+    "object-src 'none'",
+    "base-uri 'none'",
+    "form-action 'self'",
+    "frame-ancestors 'none'",
+])
+
+SECURITY_HEADERS = [
+    (b"content-security-policy", CONTENT_SECURITY_POLICY.encode()),
+    (b"x-content-type-options", b"nosniff"),
+    (b"referrer-policy", b"same-origin"),
+    (b"x-frame-options", b"DENY"),
+]
+
+
+class SecurityHeaders:
+    """ASGI middleware adding :data:`SECURITY_HEADERS` to every HTTP response."""
+
+    def __init__(self, app):
+        self.app = app
+
+    async def __call__(self, scope, receive, send):
+        if scope["type"] != "http":
+            return await self.app(scope, receive, send)
+
+        async def send_with_headers(message):
+            if message["type"] == "http.response.start":
+                present = {name.lower() for name, _ in message.get("headers", [])}
+                extra = [(name, value) for name, value in SECURITY_HEADERS if name not in present]
+                message = {**message, "headers": [*message.get("headers", []), *extra]}
+            await send(message)
+
+        await self.app(scope, receive, send_with_headers)
+
+
+class BodyTooLarge(HTTPException):
+    def __init__(self, limit: int):
+        super().__init__(status_code=413, detail=[{"loc": ["body"], "msg": f"body: larger than {limit} bytes",
+                                                   "type": "too_large"}])
+
+
+class BodyLimit:
+    """ASGI middleware refusing request bodies over ``max_bytes`` with 413.
+
+    A Content-Length over the cap is refused before reading; a streamed body is counted as it
+    arrives and refused when it passes the cap (FastAPI re-raises an HTTPException from body parsing).
+    """
+
+    def __init__(self, app, max_bytes: int):
+        self.app = app
+        self.max_bytes = max_bytes
+
+    async def __call__(self, scope, receive, send):
+        if scope["type"] != "http":
+            return await self.app(scope, receive, send)
+        for name, value in scope.get("headers", []):
+            if name == b"content-length":
+                if not value.isdigit() or int(value) > self.max_bytes:
+                    return await _send_json(send, 413, BodyTooLarge(self.max_bytes).detail)
+        received = 0
+        started = False
+
+        async def counted_receive():
+            nonlocal received
+            message = await receive()
+            if message["type"] == "http.request":
+                received += len(message.get("body", b""))
+                if received > self.max_bytes:
+                    raise BodyTooLarge(self.max_bytes)
+            return message
+
+        async def watched_send(message):
+            nonlocal started
+            if message["type"] == "http.response.start":
+                started = True
+            await send(message)
+
+        try:
+            await self.app(scope, counted_receive, watched_send)
+        except BodyTooLarge as error:
+            if not started:
+                await _send_json(send, 413, error.detail)
+
+
+async def _send_json(send, status: int, detail) -> None:
+    body = json.dumps({"detail": detail}).encode()
+    await send({"type": "http.response.start", "status": status,
+                "headers": [(b"content-type", b"application/json"), (b"content-length", str(len(body)).encode()),
+                            *SECURITY_HEADERS]})
+    await send({"type": "http.response.body", "body": body})
+
+
+def wants_json(request: Request) -> bool:
+    """True for the API, JSON twins and CSV downloads; pages get HTML errors."""
+    path = request.url.path
+    return (path.startswith("/api/") or path.endswith((".json", ".csv")) or path in ("/healthz", "/openapi.json")
+            or "text/html" not in request.headers.get("accept", ""))
+
+
+def _detail_list(detail) -> list[dict]:
+    if isinstance(detail, list):
+        return detail
+    return [{"loc": [], "msg": str(detail), "type": "error"}]
+
+
+async def validation_error(request: Request, error: RequestValidationError):
+    """422 naming each bad field; pydantic's echoed input is left out (it may hold NaN or a huge body)."""
+    errors: list[FieldError] = []
+    for item in error.errors():
+        loc = [part for part in item.get("loc", ())]
+        where, rest = (loc[0], loc[1:]) if loc else ("body", [])
+        cleaned = [p for p in rest if not (isinstance(p, str) and UNION_TAG.match(p))]
+        key = (where, *cleaned)
+        if any(tuple(e.loc) == key for e in errors):
+            continue
+        name = ".".join(str(p) for p in cleaned) or str(where)
+        errors.append(FieldError(loc=[where, *cleaned], msg=f"{name}: {item.get('msg', 'invalid')}",
+                                 type=str(item.get("type", "value_error"))))
+    return _error_response(request, 422, [e.model_dump() for e in errors])
+
+
+async def http_error(request: Request, error: StarletteHTTPException):
+    return _error_response(request, error.status_code, _detail_list(error.detail), getattr(error, "headers", None))
+
+
+async def unexpected_error(request: Request, error: Exception):
+    """Last resort: a readable 500 without a traceback (the server log keeps it)."""
+    return _error_response(request, 500, [{"loc": [], "msg": f"unexpected failure ({type(error).__name__}); "
+                                                            "please report it", "type": "internal"}])
+
+
+def _error_response(request: Request, status: int, detail: list[dict], headers=None):
+    if wants_json(request):
+        return JSONResponse({"detail": detail}, status_code=status, headers=headers)
+    from .common import render
+
+    titles = {404: "Not found", 413: "Too large", 422: "Please check the input", 500: "Something went wrong"}
+    errors = [FieldError(loc=[str(p) for p in d.get("loc", [])], msg=str(d.get("msg", "")),
+                         type=str(d.get("type", "error"))) for d in detail]
+    return render(request, "error.html", {"status": status, "title": titles.get(status, f"Error {status}"),
+                                          "errors": errors, "back": urls.screen_page()}, status_code=status)

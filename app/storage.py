@@ -1,0 +1,150 @@
+"""Shortlist storage through SQLAlchemy: SQLite (WAL mode) in the data directory by default, any URL otherwise.
+
+A shortlist is written once, in one transaction, and never changed: this module
+offers no update, and on SQLite a trigger refuses any UPDATE of a stored row.
+A change makes a new shortlist with a new id. Ids are random, 96 bits
+(``secrets.token_urlsafe(12)``), so links cannot be guessed.
+
+Routes call only the keyword-only functions below.
+"""
+
+import json
+import secrets
+import threading
+from dataclasses import dataclass
+from datetime import datetime, timezone
+from pathlib import Path
+
+from sqlalchemy import Column, DDL, Integer, MetaData, String, Table, Text, create_engine, event, insert, select, text
+from sqlalchemy.engine import Engine
+from sqlalchemy.exc import IntegrityError, OperationalError
+
+ID_BYTES = 12
+"""Random bytes per id: 96 bits, 16 URL-safe characters."""
+
+ID_PATTERN = r"^[A-Za-z0-9_-]{16}$"
+"""What an id looks like; anything else is unknown without asking the database."""
+
+TITLE_MAX = 200
+NOTE_MAX = 2000
+FORMAT = 1
+"""Version of the stored JSON layout (the screen payload of ``app.cli.screen_payload``)."""
+
+metadata = MetaData()
+
+shortlists = Table(
+    "shortlists", metadata,
+    Column("id", String(32), primary_key=True),
+    Column("title", String(TITLE_MAX), nullable=False),
+    Column("created_at", String(40), nullable=False),
+    Column("catalog_version", String(64), nullable=False),
+    Column("format", Integer, nullable=False),
+    Column("scenario", Text, nullable=False),
+    Column("result", Text, nullable=False),
+    Column("notes", Text, nullable=False),
+)
+
+event.listen(shortlists, "after_create", DDL(
+    "CREATE TRIGGER IF NOT EXISTS shortlists_immutable BEFORE UPDATE ON shortlists "
+    "BEGIN SELECT RAISE(ABORT, 'shortlists are immutable: save a new one'); END"
+).execute_if(dialect="sqlite"))
+
+
+@dataclass(frozen=True)
+class StoredShortlist:
+    """A shortlist as saved: the scenario echo, the screen result at save time and the notes per material."""
+
+    id: str
+    title: str
+    created_at: str
+    catalog_version: str
+    scenario: dict
+    result: dict
+    notes: dict
+
+
+def _sqlite_pragmas(dbapi_connection, _record) -> None:
+    cursor = dbapi_connection.cursor()
+    cursor.execute("PRAGMA journal_mode=WAL")
+    cursor.execute("PRAGMA busy_timeout=5000")
+    cursor.execute("PRAGMA synchronous=NORMAL")
+    cursor.close()
+
+
+_create_lock = threading.Lock()
+
+
+def open_storage(*, url: str) -> Engine:
+    """An engine for ``url`` with the tables created; a SQLite file's directory is created too."""
+    options = {}
+    if url.startswith("sqlite"):
+        options["connect_args"] = {"check_same_thread": False}
+        path = url.removeprefix("sqlite:///")
+        if url.startswith("sqlite:///") and path and path != ":memory:":
+            Path(path).parent.mkdir(parents=True, exist_ok=True)
+    engine = create_engine(url, pool_pre_ping=True, **options)
+    if engine.dialect.name == "sqlite":
+        event.listen(engine, "connect", _sqlite_pragmas)
+    with _create_lock:
+        try:
+            metadata.create_all(engine)
+        except OperationalError:
+            # another worker process created the table between the check and the CREATE
+            metadata.create_all(engine)
+    return engine
+
+
+def new_id() -> str:
+    """A fresh random shortlist id."""
+    return secrets.token_urlsafe(ID_BYTES)
+
+
+def _dumps(value) -> str:
+    return json.dumps(value, ensure_ascii=False, allow_nan=False, separators=(",", ":"))
+
+
+def save_shortlist(*, engine: Engine, title: str, scenario: dict, result: dict, notes: dict) -> StoredShortlist:
+    """Store a new shortlist in one transaction and return it with its id."""
+    if not title or len(title) > TITLE_MAX:
+        raise ValueError(f"title must have 1 to {TITLE_MAX} characters")
+    if any(len(note) > NOTE_MAX for note in notes.values()):
+        raise ValueError(f"notes may have at most {NOTE_MAX} characters")
+    created = datetime.now(timezone.utc).isoformat(timespec="seconds")
+    row = {"title": title, "created_at": created, "catalog_version": result.get("catalog_version", ""),
+           "format": FORMAT, "scenario": _dumps(scenario), "result": _dumps(result), "notes": _dumps(notes)}
+    for _attempt in range(3):
+        shortlist_id = new_id()
+        try:
+            with engine.begin() as connection:
+                connection.execute(insert(shortlists).values(id=shortlist_id, **row))
+        except IntegrityError:  # an id collision: 1 in 2^48 after 2^48 saves; draw again
+            continue
+        return StoredShortlist(id=shortlist_id, title=title, created_at=created,
+                               catalog_version=row["catalog_version"], scenario=scenario, result=result, notes=notes)
+    raise RuntimeError("could not draw an unused shortlist id")
+
+
+def load_shortlist(*, engine: Engine, shortlist_id: str) -> StoredShortlist | None:
+    """The shortlist with ``shortlist_id``, or None when there is none."""
+    with engine.connect() as connection:
+        row = connection.execute(select(shortlists).where(shortlists.c.id == shortlist_id)).mappings().first()
+    if row is None:
+        return None
+    return StoredShortlist(id=row["id"], title=row["title"], created_at=row["created_at"],
+                           catalog_version=row["catalog_version"], scenario=json.loads(row["scenario"]),
+                           result=json.loads(row["result"]), notes=json.loads(row["notes"]))
+
+
+def check_storage(*, engine: Engine) -> str:
+    """``"ok"`` when the database answers; raises otherwise."""
+    with engine.connect() as connection:
+        connection.execute(text("SELECT 1"))
+    return "ok"
+
+
+def journal_mode(*, engine: Engine) -> str:
+    """SQLite's journal mode (``"wal"`` when set up here); empty for other databases."""
+    if engine.dialect.name != "sqlite":
+        return ""
+    with engine.connect() as connection:
+        return str(connection.execute(text("PRAGMA journal_mode")).scalar()).lower()

@@ -1,0 +1,161 @@
+"""Shortlist storage: one transaction per save, immutable rows, random ids, WAL mode, and links that survive restarts."""
+
+import inspect
+import json
+import math
+import urllib.request
+
+import pytest
+from fastapi.testclient import TestClient
+from sqlalchemy import func, select, text
+from sqlalchemy.exc import DatabaseError
+
+from app import storage
+from app.main import create_app
+from app.settings import Settings, SettingsError
+from app.storage import TITLE_MAX, load_shortlist, open_storage, save_shortlist, shortlists
+from engine.catalog import default_catalog
+
+SCENARIO = {"ph": [0, 1], "potential": [-0.2, 0.0], "role": "cathode", "materials": ["Pt", "Zn"]}
+RESULT = {"catalog_version": "abc123", "results": [{"material": "Pt"}, {"material": "Zn"}], "rule": "r"}
+
+
+@pytest.fixture()
+def engine(tmp_path):
+    db = open_storage(url=f"sqlite:///{tmp_path / 'db' / 'shortlists.sqlite3'}")
+    yield db
+    db.dispose()
+
+
+def count(engine) -> int:
+    with engine.connect() as connection:
+        return connection.execute(select(func.count()).select_from(shortlists)).scalar()
+
+
+def test_save_and_load_round_trip(engine):
+    saved = save_shortlist(engine=engine, title="Acid cathodes", scenario=SCENARIO, result=RESULT,
+                           notes={"Pt": "ask stores ü"})
+    loaded = load_shortlist(engine=engine, shortlist_id=saved.id)
+    assert loaded == saved
+    assert loaded.catalog_version == "abc123"
+    assert load_shortlist(engine=engine, shortlist_id="AAAAAAAAAAAAAAAA") is None
+
+
+def test_ids_are_random_and_at_least_64_bits(engine):
+    ids = {save_shortlist(engine=engine, title="t", scenario=SCENARIO, result=RESULT, notes={}).id for _ in range(200)}
+    assert len(ids) == 200
+    for shortlist_id in ids:
+        assert len(shortlist_id) == 16  # 12 random bytes, URL-safe base64: 96 bits
+    assert storage.ID_BYTES * 8 >= 64
+
+
+def test_sqlite_runs_in_wal_mode(engine):
+    assert storage.journal_mode(engine=engine) == "wal"
+
+
+def test_stored_shortlists_cannot_be_updated(engine):
+    saved = save_shortlist(engine=engine, title="fixed", scenario=SCENARIO, result=RESULT, notes={})
+    with pytest.raises(DatabaseError, match="immutable"):
+        with engine.begin() as connection:
+            connection.execute(text("UPDATE shortlists SET title = 'changed' WHERE id = :id"), {"id": saved.id})
+    assert load_shortlist(engine=engine, shortlist_id=saved.id).title == "fixed"
+    assert not [name for name in dir(storage) if name.startswith(("update", "edit", "delete", "change"))]
+
+
+def test_a_failed_save_writes_nothing(engine):
+    before = count(engine)
+    with pytest.raises(ValueError):
+        save_shortlist(engine=engine, title="bad", scenario=SCENARIO, result={**RESULT, "x": math.nan}, notes={})
+    with pytest.raises(ValueError):
+        save_shortlist(engine=engine, title="t" * (TITLE_MAX + 1), scenario=SCENARIO, result=RESULT, notes={})
+    with pytest.raises(ValueError):
+        save_shortlist(engine=engine, title="t", scenario=SCENARIO, result=RESULT, notes={"Pt": "n" * 2001})
+    assert count(engine) == before
+
+
+def test_a_save_is_one_transaction(engine, monkeypatch):
+    # An insert that fails inside the transaction leaves no row behind.
+    class Boom(Exception):
+        pass
+
+    original = engine.begin
+
+    def failing_begin():
+        context = original()
+
+        class Wrapped:
+            def __enter__(self):
+                self.connection = context.__enter__()
+                return self
+
+            def execute(self, statement):
+                self.connection.execute(statement)
+                raise Boom("disk full after the insert")
+
+            def __exit__(self, *exc):
+                return context.__exit__(*exc)
+
+        return Wrapped()
+
+    before = count(engine)
+    monkeypatch.setattr(engine, "begin", failing_begin)
+    with pytest.raises(Boom):
+        save_shortlist(engine=engine, title="half", scenario=SCENARIO, result=RESULT, notes={})
+    monkeypatch.undo()
+    assert count(engine) == before
+
+
+def test_storage_functions_take_keywords_only():
+    for function in (open_storage, save_shortlist, load_shortlist, storage.check_storage, storage.journal_mode):
+        parameters = inspect.signature(function).parameters.values()
+        assert all(p.kind is inspect.Parameter.KEYWORD_ONLY for p in parameters), function.__name__
+
+
+def test_settings_from_the_environment(tmp_path):
+    settings = Settings.from_env({"ELECTROSIEVE_DATA_DIR": str(tmp_path), "ELECTROSIEVE_MAX_BODY_BYTES": "2048"})
+    assert settings.data_dir == tmp_path and settings.max_body_bytes == 2048
+    assert settings.storage_url == f"sqlite:///{(tmp_path / 'electrosieve.sqlite3').resolve()}"
+    remote = Settings.from_env({"DATABASE_URL": "postgresql+psycopg://lab@db/electrosieve"})
+    assert remote.storage_url == "postgresql+psycopg://lab@db/electrosieve"
+    assert Settings.from_env({}).data_dir.name == "var"
+    for bad in ("lots", "10"):
+        with pytest.raises(SettingsError, match="ELECTROSIEVE_MAX_BODY_BYTES"):
+            Settings.from_env({"ELECTROSIEVE_MAX_BODY_BYTES": bad})
+
+
+def test_importing_the_app_touches_no_disk(tmp_path, monkeypatch):
+    monkeypatch.chdir(tmp_path)
+    create_app(Settings.from_env({}))
+    assert not (tmp_path / "var").exists()
+
+
+def test_link_survives_an_app_restart(tmp_path):
+    catalog = default_catalog()
+    body = {"title": "survives", "scenario": SCENARIO, "notes": {"Pt": "keep"}}
+    with TestClient(create_app(Settings(data_dir=tmp_path), catalog=catalog)) as first:
+        created = first.post("/api/v1/shortlists", json=body).json()
+        before = first.get(f"/api/v1/shortlists/{created['id']}").json()
+    with TestClient(create_app(Settings(data_dir=tmp_path), catalog=catalog)) as second:
+        after = second.get(f"/api/v1/shortlists/{created['id']}")
+        assert after.status_code == 200
+        assert after.json() == before
+        assert second.get(created["url"]).status_code == 200
+
+
+def test_link_survives_a_server_restart(tmp_path, start_server):
+    first = start_server(tmp_path)
+    request = urllib.request.Request(f"{first.url}/api/v1/shortlists", method="POST",
+                                     data=json.dumps({"title": "restart", "scenario": SCENARIO}).encode(),
+                                     headers={"content-type": "application/json"})
+    with urllib.request.urlopen(request, timeout=20) as answer:
+        assert answer.status == 201
+        created = json.loads(answer.read())
+    with urllib.request.urlopen(f"{first.url}/s/{created['id']}.json", timeout=20) as answer:
+        before = json.loads(answer.read())
+    first.stop()
+    second = start_server(tmp_path)
+    with urllib.request.urlopen(f"{second.url}{created['url']}.json", timeout=20) as answer:
+        assert answer.status == 200
+        after = json.loads(answer.read())
+    assert after["results"] == before["results"] and after["title"] == "restart"
+    assert (tmp_path / "electrosieve.sqlite3").exists()
