@@ -5,6 +5,8 @@ palette keeps the three regions apart for the common colour-vision deficiencies
 (tints of blue, ochre and vermilion of differing lightness).
 """
 
+import re
+
 import plotly.graph_objects as go
 
 REGION_STYLE = {
@@ -13,6 +15,18 @@ REGION_STYLE = {
     "corrosion": {"fill": "rgba(206, 92, 60, 0.30)", "line": "#8f3a22", "pattern": "x"},
 }
 """Fill, outline and pattern of each region."""
+
+def rich_formula(name: str) -> str:
+    """A species name with sub- and superscripts in Plotly's HTML subset: ``CrO4^2-`` → ``CrO<sub>4</sub><sup>2-</sup>``.
+
+    >>> rich_formula("Fe2O3"), rich_formula("HZnO2^-"), rich_formula("TiO2 (rutile)")
+    ('Fe<sub>2</sub>O<sub>3</sub>', 'HZnO<sub>2</sub><sup>-</sup>', 'TiO<sub>2</sub> (rutile)')
+    """
+    formula, caret, charge = name.partition("^")
+    head, space, label = formula.partition(" ")
+    head = re.sub(r"(?<=[A-Za-z)])(\d+)", r"<sub>\1</sub>", head)
+    return head + space + label + (f"<sup>{charge}</sup>" if caret else "")
+
 
 WATER_STYLE = {"color": "#1b1b1b", "dash": "dash", "width": 1.6}
 WINDOW_STYLE = {"color": "#6a3d9a", "width": 2.5}
@@ -38,7 +52,7 @@ def diagram_figure(payload: dict, *, operating_window: list[list[float]] | None 
         style = REGION_STYLE[domain["region"]]
         xs = [p[0] for p in domain["polygon"]] + [domain["polygon"][0][0]]
         ys = [on_scale(*p) for p in domain["polygon"]] + [on_scale(*domain["polygon"][0])]
-        label = f"{domain['formula']} ({domain['phase']})"
+        label = f"{rich_formula(domain['formula'])} ({domain['phase']})"
         figure.add_trace(go.Scatter(
             x=xs, y=ys, mode="lines", fill="toself", fillcolor=style["fill"],
             fillpattern={"shape": style["pattern"], "fgcolor": style["line"], "size": 9, "solidity": 0.15},
@@ -49,7 +63,7 @@ def diagram_figure(payload: dict, *, operating_window: list[list[float]] | None 
         shown_regions.add(domain["region"])
         centre_x = sum(xs[:-1]) / len(xs[:-1])
         centre_y = sum(ys[:-1]) / len(ys[:-1])
-        figure.add_annotation(x=centre_x, y=centre_y, text=domain["formula"], showarrow=False,
+        figure.add_annotation(x=centre_x, y=centre_y, text=rich_formula(domain["formula"]), showarrow=False,
                               font={"size": 12, "color": "#1b1b1b"})
     ph_range = payload["window"]["ph"]
     for key, name in (("hydrogen", "H2/H2O"), ("oxygen", "O2/H2O")):

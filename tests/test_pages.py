@@ -10,6 +10,7 @@ from fastapi.testclient import TestClient
 from markupsafe import escape
 
 from app.cautions import CAUTIONS
+from app.figures import rich_formula
 from app.cli import CSV_COLUMNS
 from app.main import create_app
 from app.models import ViewQuery
@@ -226,7 +227,7 @@ def test_compare_page_draws_two_to_four_diagrams_with_patterns_and_labels(client
         patterns = {t["name"]: t["fillpattern"]["shape"] for t in fills}
         assert len(set(patterns.values())) == len(patterns)  # each region its own pattern
         labels = {a["text"] for a in figure["layout"]["annotations"]}
-        assert {d["formula"] for d in item["diagram"]["domains"]} <= labels
+        assert {rich_formula(d["formula"]) for d in item["diagram"]["domains"]} <= labels
         hovers = [t["text"] for t in fills]
         assert all(":" in text and text.split(": ")[-1] in ("immunity", "passivation", "corrosion") for text in hovers)
     html = client.get(f"/compare?{COMPARE_QUERY}").text
