@@ -14,7 +14,7 @@ from typing import Literal
 
 from pydantic import BaseModel, ConfigDict, Field, ValidationError, field_validator
 
-from .datafiles import describe, read_toml, validate_rows, validate_table
+from .datafiles import Number, describe, read_toml, validate_rows, validate_table
 from .errors import CatalogError
 from .lint import check_catalog
 from .materials import load_materials
@@ -35,22 +35,15 @@ class SpeciesRow(_Strict):
     formula: str
     charge: int
     phase: Literal[PHASES]  # type: ignore[valid-type]
-    dgf: float = Field(description="standard Gibbs energy of formation at 298.15 K [kJ/mol]")
+    dgf: Number = Field(description="standard Gibbs energy of formation at 298.15 K [kJ/mol]")
     source: str
-    dhf: float | None = Field(None, description="standard enthalpy of formation at 298.15 K [kJ/mol]")
-    s: float | None = Field(None, description="standard (conventional) entropy at 298.15 K [J/(mol K)]")
-    cp: float | None = Field(None, description="standard heat capacity at 298.15 K [J/(mol K)]")
-    uncertainty: float | None = Field(None, ge=0, description="uncertainty of dgf [kJ/mol]")
+    dhf: Number | None = Field(None, description="standard enthalpy of formation at 298.15 K [kJ/mol]")
+    s: Number | None = Field(None, description="standard (conventional) entropy at 298.15 K [J/(mol K)]")
+    cp: Number | None = Field(None, description="standard heat capacity at 298.15 K [J/(mol K)]")
+    uncertainty: Number | None = Field(None, ge=0, description="uncertainty of dgf [kJ/mol]")
     from_memory: bool | None = None
     label: str | None = None
     note: str = ""
-
-    @field_validator("dgf", "dhf", "s", "cp", mode="before")
-    @classmethod
-    def _int_is_a_number(cls, value):
-        if isinstance(value, int) and not isinstance(value, bool):
-            return float(value)
-        return value
 
     @field_validator("formula")
     @classmethod
@@ -88,21 +81,15 @@ class ScaleRow(_Strict):
     """One reference electrode of ``scales.toml``."""
 
     name: str
-    potential: float = Field(description="potential vs SHE at 25 °C [V]; 0 for the pH-dependent RHE")
+    potential: Number = Field(description="potential vs SHE at 25 °C [V]; 0 for the pH-dependent RHE")
     source: str
     ph_dependent: bool = False
-    dE_dT: float = Field(0.0, description="temperature coefficient [V/K]")
-    t_min: float = Field(0.0, description="lowest temperature of validity [°C]")
-    t_max: float = Field(150.0, description="highest temperature of validity [°C]")
+    dE_dT: Number = Field(0.0, description="temperature coefficient [V/K]")
+    t_min: Number = Field(0.0, description="lowest temperature of validity [°C]")
+    t_max: Number = Field(150.0, description="highest temperature of validity [°C]")
     from_memory: bool = False
     note: str = ""
 
-    @field_validator("potential", "dE_dT", "t_min", "t_max", mode="before")
-    @classmethod
-    def _int_is_a_number(cls, value):
-        if isinstance(value, int) and not isinstance(value, bool):
-            return float(value)
-        return value
 
 
 @dataclass(frozen=True)

@@ -2,10 +2,22 @@
 
 import tomllib
 from pathlib import Path
+from typing import Annotated
 
-from pydantic import BaseModel, ValidationError
+from pydantic import BaseModel, BeforeValidator, ValidationError
 
 from .errors import CatalogError
+
+
+def _int_to_float(value):
+    """TOML writes 0 for 0.0: accept an integer where a real number is expected (but never a bool)."""
+    if isinstance(value, int) and not isinstance(value, bool):
+        return float(value)
+    return value
+
+
+Number = Annotated[float, BeforeValidator(_int_to_float)]
+"""A real number in a data file (integers accepted, booleans and strings refused)."""
 
 
 def read_toml(path: Path) -> dict:

@@ -1,12 +1,11 @@
 """Candidate electrode materials: an element system plus the phase put in the cell, with practical metadata."""
 
-from dataclasses import dataclass
 from pathlib import Path
 from typing import Literal
 
 from pydantic import BaseModel, ConfigDict, Field
 
-from .datafiles import read_toml, validate_rows
+from .datafiles import Number, read_toml, validate_rows
 from .errors import CatalogError
 
 FAMILIES = ("noble", "platinum-group", "transition", "valve metal", "post-transition", "carbon", "oxide")
@@ -16,47 +15,32 @@ FAMILIES = ("noble", "platinum-group", "transition", "valve metal", "post-transi
 class HazardRow(BaseModel):
     """A dissolved species a lab safety officer would flag, with the reason."""
 
-    model_config = ConfigDict(extra="forbid", strict=True)
+    model_config = ConfigDict(extra="forbid", strict=True, frozen=True)
     species: str
     note: str
 
 
 class MaterialRow(BaseModel):
-    """One ``[[material]]`` row of ``materials.toml``."""
+    """A candidate the user can pick (one ``[[material]]`` row of ``materials.toml``); ``phase`` is the species it is made of."""
 
-    model_config = ConfigDict(extra="forbid", strict=True)
+    model_config = ConfigDict(extra="forbid", strict=True, frozen=True)
     id: str = Field(pattern=r"^[A-Za-z][A-Za-z0-9_-]*$")
     name: str
     element: str
     phase: str = Field(description="the species (name as in the species file) put in the cell")
     family: Literal[FAMILIES]  # type: ignore[valid-type]
-    price_usd_per_kg: float | None = None
+    price_usd_per_kg: Number | None = None
     price_year: int | None = None
     price_source: str | None = None
-    abundance_mg_per_kg: float | None = None
+    abundance_mg_per_kg: Number | None = None
     abundance_source: str | None = None
     hazards: list[HazardRow] = []
     from_memory: bool = False
     note: str = ""
 
 
-@dataclass(frozen=True)
-class Material:
-    """A candidate the user can pick; ``phase`` is the species it is made of."""
-
-    id: str
-    name: str
-    element: str
-    phase: str
-    family: str
-    price_usd_per_kg: float | None
-    price_year: int | None
-    price_source: str | None
-    abundance_mg_per_kg: float | None
-    abundance_source: str | None
-    hazards: tuple[HazardRow, ...]
-    from_memory: bool
-    note: str
+Material = MaterialRow
+"""A loaded material is its validated row."""
 
 
 def load_materials(path: Path, catalog) -> dict[str, Material]:
@@ -80,5 +64,5 @@ def load_materials(path: Path, catalog) -> dict[str, Material]:
         for hazard in row.hazards:
             if hazard.species not in names:
                 raise CatalogError(f"{where}: field 'hazards': {hazard.species!r} is not a species of {row.element}")
-        materials[row.id] = Material(**{**row.model_dump(), "hazards": tuple(row.hazards)})
+        materials[row.id] = row
     return materials

@@ -8,7 +8,7 @@ def metal(element: str, family: str = "transition", price: float | None = None, 
     """A metal material whose id and phase are the element symbol (test data, not catalog data)."""
     return Material(id=element, name=element, element=element, phase=element, family=family,
                     price_usd_per_kg=price, price_year=None, price_source=None, abundance_mg_per_kg=None,
-                    abundance_source=None, hazards=tuple(HazardRow(species=s, note=n) for s, n in hazards),
+                    abundance_source=None, hazards=[HazardRow(species=s, note=n) for s, n in hazards],
                     from_memory=False, note="test material")
 
 
