@@ -20,7 +20,7 @@
 
   var RANGE_FIELDS = { ph: ["ph_low", "ph_high"], potential: ["potential_low", "potential_high"] };
   var BODY_TO_FIELD = { ph: "ph_low", potential: "potential_low" };
-  var GAS_WORDS = { H2: "hydrogen evolves (flammable)", O2: "oxygen evolves (chlorine, toxic, in chloride media)" };
+  var GAS_WORDS = { H2: "H\u2082 evolves (see above)", O2: "O\u2082 evolves (see above)" };
   var MARKS = { "acceptable": "\u2713", "partly acceptable": "\u25D0", "rejected": "\u2715" };
 
   /* ---- the view state: form -> query string ---- */
