@@ -19,7 +19,7 @@ from engine.catalog import Catalog
 
 from .routes import api, compare, docs, health, materials, screen, shortlists
 from .routes.common import AppState
-from .routes.http import BodyLimit, SecurityHeaders, http_error, unexpected_error, validation_error
+from .routes.http import BodyLimit, RequestLog, SecurityHeaders, http_error, unexpected_error, validation_error
 from .settings import Settings
 
 PLOTLY_DIR = Path(plotly.__file__).resolve().parent / "package_data"
@@ -55,6 +55,7 @@ def create_app(settings: Settings | None = None, catalog: Catalog | None = None)
     app.add_exception_handler(Exception, unexpected_error)
     app.add_middleware(BodyLimit, max_bytes=settings.max_body_bytes)
     app.add_middleware(SecurityHeaders)
+    app.add_middleware(RequestLog)  # outermost: times everything, 413s included
     return app
 
 

@@ -13,7 +13,8 @@ import math
 import re
 from typing import Annotated, Literal
 
-from pydantic import BaseModel, ConfigDict, Field, StringConstraints, ValidationError
+from pydantic import AfterValidator, BaseModel, ConfigDict, Field, StringConstraints, ValidationError, WithJsonSchema
+from pydantic_core import PydanticCustomError
 
 from engine.diagram import ACTIVITY_RANGE, DEFAULT_ACTIVITY, TEMPERATURE_RANGE_C
 from engine.domains import Window
@@ -299,8 +300,27 @@ class Health(Out):
 
 # --- shortlists ------------------------------------------------------------------------
 
-Title = Annotated[str, StringConstraints(strip_whitespace=True, min_length=1, max_length=TITLE_MAX)]
-Note = Annotated[str, StringConstraints(max_length=NOTE_MAX)]
+def _refuse_control_characters(allowed: str):
+    """A validator refusing C0 control characters (NUL included) and DEL, except those in ``allowed``.
+
+    PostgreSQL cannot store NUL in text at all, and no title needs a control character."""
+    def check(text: str) -> str:
+        bad = sorted({c for c in text if (ord(c) < 32 or ord(c) == 127) and c not in allowed})
+        if bad:
+            raise PydanticCustomError("control_characters",
+                                      "must not contain control characters (given {found})",
+                                      {"found": ", ".join(f"U+{ord(c):04X}" for c in bad)})
+        return text
+    return AfterValidator(check)
+
+
+Title = Annotated[str, StringConstraints(strip_whitespace=True, min_length=1, max_length=TITLE_MAX),
+                  _refuse_control_characters(""), WithJsonSchema({
+                      "type": "string", "minLength": 1, "maxLength": TITLE_MAX, "pattern": "^[^\\u0000-\\u001f\\u007f]*$",
+                      "description": "one line of text; control characters are refused"})]
+Note = Annotated[str, StringConstraints(max_length=NOTE_MAX), _refuse_control_characters("\t\n\r"), WithJsonSchema({
+    "type": "string", "maxLength": NOTE_MAX, "pattern": "^[^\\u0000-\\u0008\\u000b\\u000c\\u000e-\\u001f\\u007f]*$",
+    "description": "free text; tabs and line breaks allowed, other control characters refused"})]
 
 
 class ShortlistCreate(StrictIn):

@@ -6,9 +6,15 @@
   Content-Length or streamed.
 - Errors are JSON ``{"detail": [{"loc": [...], "msg": ..., "type": ...}]}`` for the API, the JSON twins
   and CSV downloads, and a readable HTML page for the pages; never a traceback, never NaN in a body.
+- Every request is logged as one JSON object on one line (method, path, status, duration in ms, worker
+  process id) through the standard ``logging`` module, logger ``electrosieve.request``, to stderr.
 """
 
 import json
+import logging
+import os
+import sys
+import time
 
 from fastapi import HTTPException, Request
 from fastapi.exceptions import RequestValidationError
@@ -58,6 +64,71 @@ class SecurityHeaders:
             await send(message)
 
         await self.app(scope, receive, send_with_headers)
+
+
+REQUEST_LOGGER = "electrosieve.request"
+"""Name of the request log's logger; configure it before the app starts to send the lines elsewhere."""
+
+
+class _StderrHandler(logging.StreamHandler):
+    """A handler writing to whatever ``sys.stderr`` is at the time of each line."""
+
+    def __init__(self):
+        super().__init__()
+
+    @property
+    def stream(self):
+        return sys.stderr
+
+    @stream.setter
+    def stream(self, _value):
+        pass
+
+
+def request_log() -> logging.Logger:
+    """The request logger; gets a stderr handler (one JSON object per line) unless one was configured already."""
+    logger = logging.getLogger(REQUEST_LOGGER)
+    if not logger.handlers:
+        handler = _StderrHandler()
+        handler.setFormatter(logging.Formatter("%(message)s"))
+        logger.addHandler(handler)
+        logger.setLevel(logging.INFO)
+        logger.propagate = False
+    return logger
+
+
+class RequestLog:
+    """ASGI middleware writing one line per HTTP request:
+    ``{"method": "GET", "path": "/healthz", "status": 200, "duration_ms": 1.42, "pid": 4242}``.
+
+    The duration runs from the request's arrival to the last byte of the response; a request that
+    fails with no response sent is logged with status 500 (the server's error handler answers it).
+    The query string and the body are not logged.
+    """
+
+    def __init__(self, app):
+        self.app = app
+        self.logger = request_log()
+
+    async def __call__(self, scope, receive, send):
+        if scope["type"] != "http":
+            return await self.app(scope, receive, send)
+        start = time.perf_counter()
+        status = 500
+
+        async def timed_send(message):
+            nonlocal status
+            if message["type"] == "http.response.start":
+                status = message["status"]
+            await send(message)
+
+        try:
+            await self.app(scope, receive, timed_send)
+        finally:
+            self.logger.info(json.dumps({
+                "method": scope.get("method", ""), "path": scope.get("path", ""), "status": status,
+                "duration_ms": round((time.perf_counter() - start) * 1000, 2), "pid": os.getpid(),
+            }))
 
 
 class BodyTooLarge(HTTPException):
@@ -135,6 +206,12 @@ async def validation_error(request: Request, error: RequestValidationError):
     errors: list[FieldError] = []
     for item in error.errors():
         loc = [part for part in item.get("loc", ())]
+        if item.get("type") == "json_invalid":  # loc is ("body", character position): name the body itself
+            position = loc[1] if len(loc) > 1 else "?"
+            reason = (item.get("ctx") or {}).get("error", "")
+            errors.append(FieldError(loc=["body"], type="json_invalid",
+                                     msg=f"body: not valid JSON{f' ({reason})' if reason else ''} at character {position}"))
+            continue
         where, rest = (loc[0], loc[1:]) if loc else ("body", [])
         cleaned = [p for p in rest if not (isinstance(p, str) and UNION_TAG.match(p))]
         key = (where, *cleaned)
@@ -147,13 +224,22 @@ async def validation_error(request: Request, error: RequestValidationError):
 
 
 async def http_error(request: Request, error: StarletteHTTPException):
-    return _error_response(request, error.status_code, _detail_list(error.detail), getattr(error, "headers", None))
+    detail = _detail_list(error.detail)
+    if error.status_code == 400 and isinstance(error.detail, str):
+        # a body the framework could not parse (FastAPI's JSON reading, Starlette's form parser): name the body
+        reason = ("it must be UTF-8 JSON, not nested too deeply"
+                  if error.detail == "There was an error parsing the body" else error.detail)
+        detail = [{"loc": ["body"], "msg": f"body: could not be read ({reason})", "type": "unreadable"}]
+    return _error_response(request, error.status_code, detail, getattr(error, "headers", None))
 
 
 async def unexpected_error(request: Request, error: Exception):
-    """Last resort: a readable 500 without a traceback (the server log keeps it)."""
+    """Last resort: a readable 500 without a traceback (the server log keeps it).
+
+    Starlette answers this one outside every middleware, so the security headers are added here."""
+    headers = {name.decode(): value.decode() for name, value in SECURITY_HEADERS}
     return _error_response(request, 500, [{"loc": [], "msg": f"unexpected failure ({type(error).__name__}); "
-                                                            "please report it", "type": "internal"}])
+                                                            "please report it", "type": "internal"}], headers)
 
 
 def _error_response(request: Request, status: int, detail: list[dict], headers=None):
@@ -164,5 +250,7 @@ def _error_response(request: Request, status: int, detail: list[dict], headers=N
     titles = {404: "Not found", 413: "Too large", 422: "Please check the input", 500: "Something went wrong"}
     errors = [FieldError(loc=[str(p) for p in d.get("loc", [])], msg=str(d.get("msg", "")),
                          type=str(d.get("type", "error"))) for d in detail]
-    return render(request, "error.html", {"status": status, "title": titles.get(status, f"Error {status}"),
-                                          "errors": errors, "back": urls.screen_page()}, status_code=status)
+    response = render(request, "error.html", {"status": status, "title": titles.get(status, f"Error {status}"),
+                                              "errors": errors, "back": urls.screen_page()}, status_code=status)
+    response.headers.update(headers or {})
+    return response
