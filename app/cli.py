@@ -7,6 +7,7 @@ readable line on stderr and a non-zero exit (2 for bad input), never a traceback
 
 import argparse
 import json
+import math
 import sys
 from pathlib import Path
 
@@ -47,10 +48,25 @@ def parse_range(text: str, field: str) -> tuple[float, float]:
 
 
 def _number(text: str, field: str) -> float:
+    """``text`` as a finite number, or an error naming ``field``."""
     try:
-        return float(text)
+        value = float(text)
     except (TypeError, ValueError):
         raise InputError(f"{field} must be a number (given {text!r})", field=field) from None
+    if not math.isfinite(value):
+        raise InputError(f"{field} must be a finite number (given {text!r})", field=field)
+    return value
+
+
+def _whole_number(text: str, field: str, low: int, high: int) -> int:
+    """``text`` as a whole number within [low, high], or an error naming ``field``."""
+    try:
+        value = int(str(text).strip())
+    except ValueError:
+        raise InputError(f"{field} must be a whole number (given {text!r})", field=field) from None
+    if not low <= value <= high:
+        raise InputError(f"{field} must be between {low} and {high} (given {value})", field=field)
+    return value
 
 
 def _catalog(args) -> Catalog:
@@ -315,8 +331,8 @@ def cmd_sources(args) -> None:
 def cmd_serve(args) -> None:
     from .server import serve
 
-    serve(host=args.host, port=int(_number(args.port, "--port")), workers=int(_number(args.workers, "--workers")),
-          data_dir=args.data_dir)
+    serve(host=args.host, port=_whole_number(args.port, "--port", 1, 65535),
+          workers=_whole_number(args.workers, "--workers", 1, 64), data_dir=args.data_dir)
 
 
 def build_parser() -> argparse.ArgumentParser:

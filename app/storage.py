@@ -1,7 +1,7 @@
 """Shortlist storage through SQLAlchemy: SQLite (WAL mode) in the data directory by default, any URL otherwise.
 
 A shortlist is written once, in one transaction, and never changed: this module
-offers no update, and on SQLite a trigger refuses any UPDATE of a stored row.
+offers no update, and a trigger (SQLite or PostgreSQL) refuses any UPDATE of a stored row.
 A change makes a new shortlist with a new id. Ids are random, 96 bits
 (``secrets.token_urlsafe(12)``), so links cannot be guessed.
 
@@ -48,6 +48,12 @@ event.listen(shortlists, "after_create", DDL(
     "CREATE TRIGGER IF NOT EXISTS shortlists_immutable BEFORE UPDATE ON shortlists "
     "BEGIN SELECT RAISE(ABORT, 'shortlists are immutable: save a new one'); END"
 ).execute_if(dialect="sqlite"))
+event.listen(shortlists, "after_create", DDL(
+    "CREATE OR REPLACE FUNCTION shortlists_refuse_update() RETURNS trigger LANGUAGE plpgsql AS "
+    "$$ BEGIN RAISE EXCEPTION 'shortlists are immutable: save a new one'; END $$; "
+    "CREATE TRIGGER shortlists_immutable BEFORE UPDATE ON shortlists "
+    "FOR EACH ROW EXECUTE FUNCTION shortlists_refuse_update()"
+).execute_if(dialect="postgresql"))
 
 
 @dataclass(frozen=True)

@@ -35,11 +35,6 @@ class CliCase:
     """Text the one-line message must contain: the option or field at fault."""
 
 
-DEFECT_CONVERT_NAN = ("app/cli.py cmd_convert: VALUE and --ph go through float() unchecked, so NaN and "
-                      "infinities are converted (exit 0, and --json prints the invalid JSON literal NaN)")
-DEFECT_WHOLE_NUMBER = ("app/cli.py cmd_serve: --workers/--port go through int(float(text)), so 2.5 becomes 2 "
-                       "and nan ends in 'unexpected failure' (exit 1)")
-
 CLI_CASES = [
     CliCase("screen: pH not a number", ["screen", "--ph", "seven", "--potential", "0"], "--ph"),
     CliCase("screen: empty pH", ["screen", "--ph", "", "--potential", "0"], "--ph"),
@@ -94,20 +89,11 @@ CLI_CASES = [
     CliCase("serve: port out of range", ["serve", "--port", "99999"], "--port"),
     CliCase("serve: port not a number", ["serve", "--port", "abc"], "--port"),
     CliCase("unknown command", ["frobnicate"], "command"),
-]
-
-CLI_DEFECTS = [
-    pytest.param(CliCase("convert: NaN value", ["convert", "nan", "--from", "SHE", "--to", "SCE"], "VALUE"),
-                 marks=pytest.mark.xfail(strict=True, reason=DEFECT_CONVERT_NAN), id="convert: NaN value"),
-    pytest.param(CliCase("convert: infinite value", ["convert", "inf", "--from", "SHE", "--to", "SCE"], "VALUE"),
-                 marks=pytest.mark.xfail(strict=True, reason=DEFECT_CONVERT_NAN), id="convert: infinite value"),
-    pytest.param(CliCase("convert: NaN pH for the RHE",
-                         ["convert", "0", "--from", "SHE", "--to", "RHE", "--ph", "nan"], "--ph"),
-                 marks=pytest.mark.xfail(strict=True, reason=DEFECT_CONVERT_NAN), id="convert: NaN pH for the RHE"),
-    pytest.param(CliCase("serve: fractional workers", ["serve", "--workers", "2.5"], "--workers"),
-                 marks=pytest.mark.xfail(strict=True, reason=DEFECT_WHOLE_NUMBER), id="serve: fractional workers"),
-    pytest.param(CliCase("serve: NaN workers", ["serve", "--workers", "nan"], "--workers"),
-                 marks=pytest.mark.xfail(strict=True, reason=DEFECT_WHOLE_NUMBER), id="serve: NaN workers"),
+    CliCase("convert: NaN value", ["convert", "nan", "--from", "SHE", "--to", "SCE"], "VALUE"),
+    CliCase("convert: infinite value", ["convert", "inf", "--from", "SHE", "--to", "SCE"], "VALUE"),
+    CliCase("convert: NaN pH for the RHE", ["convert", "0", "--from", "SHE", "--to", "RHE", "--ph", "nan"], "--ph"),
+    CliCase("serve: fractional workers", ["serve", "--workers", "2.5"], "--workers"),
+    CliCase("serve: NaN workers", ["serve", "--workers", "nan"], "--workers"),
 ]
 
 
@@ -127,7 +113,7 @@ def no_server(monkeypatch, tmp_path):
     monkeypatch.delenv("DATABASE_URL", raising=False)
 
 
-@pytest.mark.parametrize("case", [pytest.param(c, id=c.name) for c in CLI_CASES] + CLI_DEFECTS)
+@pytest.mark.parametrize("case", [pytest.param(c, id=c.name) for c in CLI_CASES])
 def test_bad_command_line_exits_2_with_one_line_naming_the_field(case, capsys, no_server):
     try:
         code = main(case.argv)
@@ -142,7 +128,7 @@ def test_bad_command_line_exits_2_with_one_line_naming_the_field(case, capsys, n
 
 
 def test_the_catalogue_has_at_least_thirty_command_line_cases():
-    assert len(CLI_CASES) + len(CLI_DEFECTS) >= 30
+    assert len(CLI_CASES) >= 30
     assert len({c.name for c in CLI_CASES}) == len(CLI_CASES)
 
 

@@ -207,8 +207,6 @@ def test_postgres_saves_from_many_threads_are_distinct_and_readable(engine):
         assert load_shortlist(engine=engine, shortlist_id=item.id) == item
 
 
-@pytest.mark.xfail(strict=True, reason="app/storage.py: the trigger refusing UPDATE is created on SQLite only "
-                                       "(DDL(...).execute_if(dialect='sqlite')); PostgreSQL rows can be changed")
 def test_postgres_stored_shortlists_cannot_be_updated(engine):
     from sqlalchemy import text
     from sqlalchemy.exc import DatabaseError
