@@ -7,7 +7,7 @@ entry and the field.
 """
 
 from dataclasses import dataclass, field
-from functools import lru_cache
+from functools import cached_property, lru_cache
 from importlib import resources
 from pathlib import Path
 from typing import Literal
@@ -121,11 +121,15 @@ class Catalog:
     raw_materials: dict = field(default_factory=dict)
     version: str = ""
 
+    @cached_property
+    def _systems_by_lower_symbol(self) -> dict[str, ElementSystem]:
+        return {symbol.lower(): system for symbol, system in self.systems.items()}
+
     def system(self, element: str) -> ElementSystem:
         """The element system for ``element`` (case-insensitive), or a clear error listing the known ones."""
-        for symbol, system in self.systems.items():
-            if symbol.lower() == str(element).lower():
-                return system
+        found = self._systems_by_lower_symbol.get(str(element).lower())
+        if found is not None:
+            return found
         known = ", ".join(sorted(self.systems))
         raise CatalogError(f"unknown element {element!r}; known elements: {known}", field="element")
 

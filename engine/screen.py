@@ -10,7 +10,7 @@ exact diagram (``engine.metrics``) and ranked by a rule shown to the user
 from dataclasses import dataclass, field
 
 from .catalog import Catalog, default_catalog
-from .diagram import DEFAULT_ACTIVITY, check_activity, check_temperature, diagram
+from .diagram import DEFAULT_ACTIVITY, Diagram, check_activity, check_temperature, diagram
 from .domains import Window
 from .errors import InputError
 from .materials import FAMILIES, Material
@@ -134,6 +134,7 @@ class ElementVerdict:
     margin: float
     margin_capped: bool
     gas: list
+    diagram: Diagram
 
 
 def judge_element(catalog: Catalog, scenario: Scenario, element: str, window: OperatingWindow) -> ElementVerdict:
@@ -144,14 +145,13 @@ def judge_element(catalog: Catalog, scenario: Scenario, element: str, window: Op
     margin, capped = potential_margin(result, window, set(scenario.accept))
     return ElementVerdict(pieces=pieces, fractions=region_fractions(pieces), dissolved=dissolved,
                           dissolved_at=dissolved_at, margin=margin, margin_capped=capped,
-                          gas=gas_evolution(window, result.water))
+                          gas=gas_evolution(window, result.water), diagram=result)
 
 
 def screen_material(catalog: Catalog, scenario: Scenario, material: Material, window: OperatingWindow,
                     verdict: ElementVerdict) -> dict:
     """All metrics of one candidate (unranked), given its element's verdict."""
-    result = diagram(material.element, scenario.activity, scenario.temperature, catalog=catalog)
-    energy, energy_at = instability(result, window, material.phase)
+    energy, energy_at = instability(verdict.diagram, window, material.phase)
     fractions = verdict.fractions
     met = {p.species for p in verdict.pieces}
     hazards = [{"kind": "toxic", "species": h.species, "note": h.note} for h in material.hazards if h.species in met]
@@ -193,7 +193,7 @@ def screen(scenario: Scenario, catalog: Catalog | None = None) -> dict:
                 for element in dict.fromkeys(m.element for m in chosen)}
     rows = [screen_material(catalog, scenario, m, window, verdicts[m.element]) for m in chosen]
     ranked = rank(rows, scenario.rank_by, scenario.weights or None)
-    water = diagram(chosen[0].element, scenario.activity, scenario.temperature, catalog=catalog).water
+    water = next(iter(verdicts.values())).diagram.water
     return {
         "scenario": scenario.echo(),
         "rule": rule_text(scenario),

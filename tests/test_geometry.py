@@ -39,3 +39,31 @@ def test_contains():
     assert contains(vertices, 1.0, 0.5)
     assert not contains(vertices, 1.5, 0.5)
     assert not contains(np.zeros((0, 2)), 0, 0)
+
+
+@settings(max_examples=150, deadline=None)
+@given(st.floats(-2, 2), st.floats(0, 1.5), st.floats(-1, 1), st.floats(0, 0.8), st.floats(-3, 3), st.floats(-3, 3))
+def test_vertical_overlap_shifts_match_a_scan(x, width, y, height, a, b):
+    """Shift the piece in small steps and test overlap with `intersect` (a sampled check of the exact interval)."""
+    from engine.geometry import edge_half_planes, intersect, vertical_overlap_shifts
+
+    polygon, labels = rectangle(-1, 1, -1, 1)
+    polygon, _ = clip(polygon, labels, -0.5, a * 0.3, b * 0.3 + 0.01, 0)  # a convex, possibly slanted shape
+    if len(polygon) < 3:
+        return
+    corners = [[x, y], [x + width, y], [x + width, y + height], [x, y + height]]
+    piece = np.unique(np.array(corners), axis=0) if (width == 0 or height == 0) else np.array(corners)
+    if width == 0 and height == 0:
+        piece = np.array([[x, y]])
+    elif width == 0 or height == 0:
+        piece = np.array([corners[0], corners[2]])
+    shifts = vertical_overlap_shifts(piece, polygon)
+    planes = edge_half_planes(polygon)
+    meets = [d for d in np.linspace(-6, 6, 1201) if len(intersect(piece + np.array([0.0, d]), planes))]
+    if shifts is None:
+        assert not meets
+        return
+    low, high = shifts
+    assert all(low - 1e-6 <= d <= high + 1e-6 for d in meets)
+    if high - low > 0.03:
+        assert meets and meets[0] <= low + 0.011 and meets[-1] >= high - 0.011
