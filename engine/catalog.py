@@ -7,7 +7,7 @@ entry and the field.
 """
 
 from dataclasses import dataclass, field
-from functools import cached_property, lru_cache
+from functools import lru_cache
 from importlib import resources
 from pathlib import Path
 from typing import Literal
@@ -121,17 +121,19 @@ class Catalog:
     raw_materials: dict = field(default_factory=dict)
     version: str = ""
 
-    @cached_property
-    def _systems_by_lower_symbol(self) -> dict[str, ElementSystem]:
-        return {symbol.lower(): system for symbol, system in self.systems.items()}
-
     def system(self, element: str) -> ElementSystem:
         """The element system for ``element`` (case-insensitive), or a clear error listing the known ones."""
-        found = self._systems_by_lower_symbol.get(str(element).lower())
+        found = _systems_by_lower_symbol(self).get(str(element).lower())
         if found is not None:
             return found
         known = ", ".join(sorted(self.systems))
         raise CatalogError(f"unknown element {element!r}; known elements: {known}", field="element")
+
+
+@lru_cache(maxsize=16)
+def _systems_by_lower_symbol(catalog: Catalog) -> dict[str, ElementSystem]:
+    """The catalog's element systems keyed by lower-case symbol (catalogs hash by identity)."""
+    return {symbol.lower(): system for symbol, system in catalog.systems.items()}
 
 
 def load_species_file(path: Path) -> SpeciesFile:

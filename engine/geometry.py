@@ -61,6 +61,8 @@ def clip(vertices: np.ndarray, labels: np.ndarray, a: float, b: float, c: float,
         if len(out_points) == 1 or abs(following[0] - point[0]) + abs(following[1] - point[1]) > 1e-12:
             kept_points.append(point)
             kept_labels.append(out_labels[k])
+    if not kept_points:  # every point coincides: the piece has shrunk to a single point
+        kept_points, kept_labels = out_points[:1], out_labels[:1]
     return np.array(kept_points, dtype=float).reshape(-1, 2), np.array(kept_labels, dtype=int)
 
 

@@ -107,3 +107,17 @@ def live_server(tmp_path_factory):
     server = Server(tmp_path_factory.mktemp("live-server"))
     yield server
     server.stop()
+
+
+@pytest.fixture()
+def client(tmp_path):
+    """An in-process client of the app with the built-in catalog and shortlists in a temporary directory."""
+    from fastapi.testclient import TestClient
+
+    from app.main import create_app
+    from app.settings import Settings
+    from engine.catalog import default_catalog
+
+    app = create_app(Settings(data_dir=tmp_path), catalog=default_catalog())
+    with TestClient(app, raise_server_exceptions=False) as test_client:
+        yield test_client

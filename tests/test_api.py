@@ -20,13 +20,6 @@ CATALOG = default_catalog()
 
 
 @pytest.fixture()
-def client(tmp_path):
-    app = create_app(Settings(data_dir=tmp_path), catalog=CATALOG)
-    with TestClient(app, raise_server_exceptions=False) as test_client:
-        yield test_client
-
-
-@pytest.fixture()
 def small_client(tmp_path):
     """A fixed three-material catalog (test data): Pt, Zn and Pb with a lead hazard."""
     catalog = catalog_with(metal("Pt", "platinum-group", 30000.0), metal("Zn", price=3.0),

@@ -16,13 +16,12 @@ import subprocess
 import sys
 import threading
 import time
-import urllib.error
-import urllib.request
 from pathlib import Path
 
 import pytest
 
 from tests.conftest import ROOT, SERVER_START_SECONDS, free_port
+from tests.utils.http import request_json
 
 WORKERS = 2
 CLIENTS = 8
@@ -38,13 +37,7 @@ SCENARIOS = [
 
 
 def request(method: str, url: str, body: dict | None = None) -> tuple[int, dict]:
-    data = None if body is None else json.dumps(body).encode()
-    req = urllib.request.Request(url, data=data, method=method, headers={"content-type": "application/json"})
-    try:
-        with urllib.request.urlopen(req, timeout=HTTP_TIMEOUT) as answer:
-            return answer.status, json.loads(answer.read())
-    except urllib.error.HTTPError as error:
-        return error.code, json.loads(error.read() or b"{}")
+    return request_json(method, url, body, timeout=HTTP_TIMEOUT)
 
 
 def log_lines(path: Path, complete: bool = True) -> list[dict]:

@@ -14,10 +14,9 @@ import random
 import sqlite3
 import threading
 import time
-import urllib.error
-import urllib.request
 
 from app.settings import SQLITE_FILE
+from tests.utils.http import request_json
 
 ROUNDS = 3
 """How many times the server is killed while shortlists are being written."""
@@ -38,13 +37,7 @@ SCENARIOS = [
 
 
 def request(method: str, url: str, body: dict | None = None) -> tuple[int, dict]:
-    data = None if body is None else json.dumps(body).encode()
-    req = urllib.request.Request(url, data=data, method=method, headers={"content-type": "application/json"})
-    try:
-        with urllib.request.urlopen(req, timeout=HTTP_TIMEOUT) as answer:
-            return answer.status, json.loads(answer.read())
-    except urllib.error.HTTPError as error:
-        return error.code, json.loads(error.read() or b"{}")
+    return request_json(method, url, body, timeout=HTTP_TIMEOUT)
 
 
 GONE = (OSError, ValueError, http.client.HTTPException)

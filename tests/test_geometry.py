@@ -1,7 +1,7 @@
 """Convex-polygon clipping, area and containment."""
 
 import numpy as np
-from hypothesis import assume, given, settings
+from hypothesis import assume, example, given, settings
 from hypothesis import strategies as st
 
 from engine.geometry import area, clip, contains, is_convex, rectangle
@@ -43,6 +43,7 @@ def test_contains():
 
 @settings(max_examples=150, deadline=None)
 @given(st.floats(-2, 2), st.floats(0, 1.5), st.floats(-1, 1), st.floats(0, 0.8), st.floats(-3, 3), st.floats(-3, 3))
+@example(x=1.0, width=1.0, y=0.0, height=0.0, a=0.0, b=0.0)  # a segment touching the square at one pH
 def test_vertical_overlap_shifts_match_a_scan(x, width, y, height, a, b):
     """Shift the piece in small steps and test overlap with `intersect` (a sampled check of the exact interval)."""
     from engine.geometry import edge_half_planes, intersect, vertical_overlap_shifts
@@ -67,3 +68,9 @@ def test_vertical_overlap_shifts_match_a_scan(x, width, y, height, a, b):
     assert all(low - 1e-6 <= d <= high + 1e-6 for d in meets)
     if high - low > 0.03:
         assert meets and meets[0] <= low + 0.011 and meets[-1] >= high - 0.011
+
+
+def test_clip_down_to_a_single_point_keeps_it():
+    # A segment from (1, 0) to (2, 0) clipped to x <= 1 is the point (1, 0), not nothing.
+    vertices, labels = clip(np.array([[1.0, 0.0], [2.0, 0.0]]), np.array([-1, -1]), -1.0, 1.0, 0.0, 3)
+    assert vertices.tolist() == [[1.0, 0.0]]

@@ -61,13 +61,6 @@ class Page(HTMLParser):
 
 
 @pytest.fixture()
-def client(tmp_path):
-    app = create_app(Settings(data_dir=tmp_path), catalog=CATALOG)
-    with TestClient(app, raise_server_exceptions=False) as test_client:
-        yield test_client
-
-
-@pytest.fixture()
 def shortlist_id(client):
     response = client.post("/api/v1/shortlists", json={
         "title": "Acid cathodes <script>alert('title')</script>",
