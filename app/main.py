@@ -12,6 +12,7 @@ from pathlib import Path
 import plotly
 from fastapi import FastAPI
 from fastapi.exceptions import RequestValidationError
+from fastapi.responses import FileResponse
 from fastapi.staticfiles import StaticFiles
 from starlette.exceptions import HTTPException as StarletteHTTPException
 
@@ -22,8 +23,8 @@ from .routes.common import AppState
 from .routes.http import BodyLimit, RequestLog, SecurityHeaders, http_error, unexpected_error, validation_error
 from .settings import Settings
 
-PLOTLY_DIR = Path(plotly.__file__).resolve().parent / "package_data"
-"""Where the plotly wheel keeps its own plotly.min.js (served at /vendor, so no CDN is needed)."""
+PLOTLY_JS = Path(plotly.__file__).resolve().parent / "package_data" / "plotly.min.js"
+"""The plotly wheel's own plotly.min.js, served at /vendor/plotly.min.js (no CDN needed); nothing else there is served."""
 
 
 def static_dir() -> Path:
@@ -49,7 +50,11 @@ def create_app(settings: Settings | None = None, catalog: Catalog | None = None)
                    docs.router):
         app.include_router(router)
     app.mount("/static", StaticFiles(directory=static_dir()), name="static")
-    app.mount("/vendor", StaticFiles(directory=PLOTLY_DIR), name="vendor")
+
+    @app.get("/vendor/plotly.min.js", include_in_schema=False)
+    def plotly_js() -> FileResponse:
+        return FileResponse(PLOTLY_JS, media_type="text/javascript", headers={"Cache-Control": "public, max-age=86400"})
+
     app.add_exception_handler(RequestValidationError, validation_error)
     app.add_exception_handler(StarletteHTTPException, http_error)
     app.add_exception_handler(Exception, unexpected_error)
