@@ -12,7 +12,7 @@ from pathlib import Path
 import plotly
 from fastapi import FastAPI
 from fastapi.exceptions import RequestValidationError
-from fastapi.responses import FileResponse
+from fastapi.responses import FileResponse, Response
 from fastapi.staticfiles import StaticFiles
 from starlette.exceptions import HTTPException as StarletteHTTPException
 
@@ -51,7 +51,7 @@ def create_app(settings: Settings | None = None, catalog: Catalog | None = None)
         app.include_router(router)
     app.mount("/static", StaticFiles(directory=static_dir()), name="static")
 
-    @app.get("/vendor/plotly.min.js", include_in_schema=False)
+    @app.get("/vendor/plotly.min.js", include_in_schema=False, response_class=Response)
     def plotly_js() -> FileResponse:
         return FileResponse(PLOTLY_JS, media_type="text/javascript", headers={"Cache-Control": "public, max-age=86400"})
 
