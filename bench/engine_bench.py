@@ -9,7 +9,7 @@ import statistics
 import time
 
 from engine.catalog import default_catalog
-from engine.diagram import _cached_diagram, planes_for
+from engine.diagram import _cached_diagram
 from engine.domains import Window, boundaries, stability_domains
 from engine.planes import build_planes
 from engine.screen import make_scenario, screen

@@ -6,16 +6,13 @@ import json
 from html.parser import HTMLParser
 
 import pytest
-from fastapi.testclient import TestClient
 from markupsafe import escape
 
 from app.cautions import CAUTIONS
 from app.figures import rich_formula
 from app.cli import CSV_COLUMNS
-from app.main import create_app
 from app.models import ViewQuery
 from app.payloads import diagram_payload, sources_payload
-from app.settings import Settings
 from app.storage import save_shortlist
 from engine.catalog import default_catalog
 from engine.constants import nernst_slope

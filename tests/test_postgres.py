@@ -10,7 +10,6 @@ timeout on every connection, timeouts on every HTTP call.
 """
 
 import json
-import math
 import os
 import secrets
 import threading
@@ -22,16 +21,16 @@ from fastapi.testclient import TestClient
 from app import storage
 from app.main import create_app
 from app.settings import Settings
-from app.storage import NOTE_MAX, TITLE_MAX, load_shortlist, open_storage, save_shortlist, shortlists
+from app.storage import load_shortlist, open_storage, save_shortlist
 from engine.catalog import default_catalog
+from tests.utils.storage_checks import (RESULT, SCENARIO, assert_a_save_is_one_transaction,
+                                        assert_failed_saves_write_nothing, assert_updates_are_refused, count)
 
 ENV = "ELECTROSIEVE_TEST_POSTGRES_URL"
 CONNECT_SECONDS = 5
 STATEMENT_MS = 15_000
 HTTP_TIMEOUT = 20
 CATALOG = default_catalog()
-SCENARIO = {"ph": [0, 1], "potential": [-0.2, 0.0], "role": "cathode", "materials": ["Pt", "Zn"]}
-RESULT = {"catalog_version": "abc123", "results": [{"material": "Pt"}, {"material": "Zn"}], "rule": "r"}
 
 
 def _with_options(url, **options):
@@ -99,13 +98,6 @@ def engine(pg_url):
     db.dispose()
 
 
-def count(engine) -> int:
-    from sqlalchemy import func, select
-
-    with engine.connect() as connection:
-        return connection.execute(select(func.count()).select_from(shortlists)).scalar()
-
-
 # --- storage --------------------------------------------------------------------------------
 
 def test_postgres_save_and_load_round_trip(engine):
@@ -125,45 +117,11 @@ def test_postgres_ids_are_random_and_distinct(engine):
 
 
 def test_postgres_failed_save_writes_nothing(engine):
-    before = count(engine)
-    with pytest.raises(ValueError):
-        save_shortlist(engine=engine, title="bad", scenario=SCENARIO, result={**RESULT, "x": math.nan}, notes={})
-    with pytest.raises(ValueError):
-        save_shortlist(engine=engine, title="t" * (TITLE_MAX + 1), scenario=SCENARIO, result=RESULT, notes={})
-    with pytest.raises(ValueError):
-        save_shortlist(engine=engine, title="t", scenario=SCENARIO, result=RESULT, notes={"Pt": "n" * (NOTE_MAX + 1)})
-    assert count(engine) == before
+    assert_failed_saves_write_nothing(engine)
 
 
 def test_postgres_save_is_one_transaction(engine, monkeypatch):
-    class Boom(Exception):
-        pass
-
-    original = engine.begin
-
-    def failing_begin():
-        context = original()
-
-        class Wrapped:
-            def __enter__(self):
-                self.connection = context.__enter__()
-                return self
-
-            def execute(self, statement):
-                self.connection.execute(statement)
-                raise Boom("lost the connection after the insert")
-
-            def __exit__(self, *exc):
-                return context.__exit__(*exc)
-
-        return Wrapped()
-
-    before = count(engine)
-    monkeypatch.setattr(engine, "begin", failing_begin)
-    with pytest.raises(Boom):
-        save_shortlist(engine=engine, title="half", scenario=SCENARIO, result=RESULT, notes={})
-    monkeypatch.undo()
-    assert count(engine) == before
+    assert_a_save_is_one_transaction(engine, monkeypatch, "lost the connection after the insert")
 
 
 def test_postgres_cannot_store_nul_which_the_api_therefore_refuses(engine, pg_url, tmp_path):
@@ -208,14 +166,7 @@ def test_postgres_saves_from_many_threads_are_distinct_and_readable(engine):
 
 
 def test_postgres_stored_shortlists_cannot_be_updated(engine):
-    from sqlalchemy import text
-    from sqlalchemy.exc import DatabaseError
-
-    saved = save_shortlist(engine=engine, title="fixed", scenario=SCENARIO, result=RESULT, notes={})
-    with pytest.raises(DatabaseError):
-        with engine.begin() as connection:
-            connection.execute(text("UPDATE shortlists SET title = 'changed' WHERE id = :id"), {"id": saved.id})
-    assert load_shortlist(engine=engine, shortlist_id=saved.id).title == "fixed"
+    assert_updates_are_refused(engine)
 
 
 # --- the API and several instances ----------------------------------------------------------

@@ -2,22 +2,19 @@
 
 import inspect
 import json
-import math
 import urllib.request
 
 import pytest
 from fastapi.testclient import TestClient
-from sqlalchemy import func, select, text
-from sqlalchemy.exc import DatabaseError
 
 from app import storage
 from app.main import create_app
 from app.settings import Settings, SettingsError
-from app.storage import TITLE_MAX, load_shortlist, open_storage, save_shortlist, shortlists
+from app.storage import load_shortlist, open_storage, save_shortlist
 from engine.catalog import default_catalog
+from tests.utils.storage_checks import (RESULT, SCENARIO, assert_a_save_is_one_transaction,
+                                        assert_failed_saves_write_nothing, assert_updates_are_refused)
 
-SCENARIO = {"ph": [0, 1], "potential": [-0.2, 0.0], "role": "cathode", "materials": ["Pt", "Zn"]}
-RESULT = {"catalog_version": "abc123", "results": [{"material": "Pt"}, {"material": "Zn"}], "rule": "r"}
 
 
 @pytest.fixture()
@@ -25,11 +22,6 @@ def engine(tmp_path):
     db = open_storage(url=f"sqlite:///{tmp_path / 'db' / 'shortlists.sqlite3'}")
     yield db
     db.dispose()
-
-
-def count(engine) -> int:
-    with engine.connect() as connection:
-        return connection.execute(select(func.count()).select_from(shortlists)).scalar()
 
 
 def test_save_and_load_round_trip(engine):
@@ -54,55 +46,16 @@ def test_sqlite_runs_in_wal_mode(engine):
 
 
 def test_stored_shortlists_cannot_be_updated(engine):
-    saved = save_shortlist(engine=engine, title="fixed", scenario=SCENARIO, result=RESULT, notes={})
-    with pytest.raises(DatabaseError, match="immutable"):
-        with engine.begin() as connection:
-            connection.execute(text("UPDATE shortlists SET title = 'changed' WHERE id = :id"), {"id": saved.id})
-    assert load_shortlist(engine=engine, shortlist_id=saved.id).title == "fixed"
+    assert_updates_are_refused(engine, match="immutable")
     assert not [name for name in dir(storage) if name.startswith(("update", "edit", "delete", "change"))]
 
 
 def test_a_failed_save_writes_nothing(engine):
-    before = count(engine)
-    with pytest.raises(ValueError):
-        save_shortlist(engine=engine, title="bad", scenario=SCENARIO, result={**RESULT, "x": math.nan}, notes={})
-    with pytest.raises(ValueError):
-        save_shortlist(engine=engine, title="t" * (TITLE_MAX + 1), scenario=SCENARIO, result=RESULT, notes={})
-    with pytest.raises(ValueError):
-        save_shortlist(engine=engine, title="t", scenario=SCENARIO, result=RESULT, notes={"Pt": "n" * 2001})
-    assert count(engine) == before
+    assert_failed_saves_write_nothing(engine)
 
 
 def test_a_save_is_one_transaction(engine, monkeypatch):
-    # An insert that fails inside the transaction leaves no row behind.
-    class Boom(Exception):
-        pass
-
-    original = engine.begin
-
-    def failing_begin():
-        context = original()
-
-        class Wrapped:
-            def __enter__(self):
-                self.connection = context.__enter__()
-                return self
-
-            def execute(self, statement):
-                self.connection.execute(statement)
-                raise Boom("disk full after the insert")
-
-            def __exit__(self, *exc):
-                return context.__exit__(*exc)
-
-        return Wrapped()
-
-    before = count(engine)
-    monkeypatch.setattr(engine, "begin", failing_begin)
-    with pytest.raises(Boom):
-        save_shortlist(engine=engine, title="half", scenario=SCENARIO, result=RESULT, notes={})
-    monkeypatch.undo()
-    assert count(engine) == before
+    assert_a_save_is_one_transaction(engine, monkeypatch, "disk full after the insert")
 
 
 def test_storage_functions_take_keywords_only():
