@@ -19,7 +19,6 @@ from engine.scales import canonical_scale, convert, needs_ph, to_she
 from engine.screen import make_scenario, screen
 
 from . import payloads
-from .cautions import CAUTIONS
 
 EXIT_BAD_INPUT = 2
 EXIT_INTERNAL = 1
@@ -212,40 +211,19 @@ def scenario_from_args(args, catalog: Catalog):
     )
 
 
-def screen_payload(result: dict) -> dict:
-    """The screen result with the cautions that go wherever results appear."""
-    return {**result, "cautions": list(CAUTIONS)}
-
-
-CSV_COLUMNS = ("rank", "material", "name", "element", "phase", "family", "verdict", "immunity", "passivation",
-               "corrosion", "instability_ev", "log10_dissolved", "margin_mv", "price_usd_per_kg", "price_year",
-               "hazards", "reason")
-
-
-def csv_rows(result: dict) -> list[dict]:
-    """One flat row per ranked candidate (the CSV download)."""
-    rows = []
-    for row in result["results"]:
-        flat = {key: row.get(key) for key in CSV_COLUMNS}
-        flat.update(row["fractions"])
-        flat["hazards"] = "; ".join(f"{h['species']}: {h['note']}" for h in row["hazards"])
-        rows.append(flat)
-    return rows
-
-
 def write_csv(result: dict, stream) -> None:
     import csv
 
-    writer = csv.DictWriter(stream, fieldnames=CSV_COLUMNS, lineterminator="\n")
+    writer = csv.DictWriter(stream, fieldnames=payloads.CSV_COLUMNS, lineterminator="\n")
     writer.writeheader()
-    writer.writerows(csv_rows(result))
+    writer.writerows(payloads.csv_rows(result))
 
 
 def cmd_screen(args) -> None:
     catalog = _catalog(args)
     if args.json and args.csv:
         raise InputError("choose one of --json and --csv", field="--csv")
-    result = screen_payload(screen(scenario_from_args(args, catalog), catalog))
+    result = payloads.screen_payload(screen(scenario_from_args(args, catalog), catalog))
     if args.csv:
         write_csv(result, sys.stdout)
         return

@@ -6,7 +6,7 @@ infinities are refused with a 422 naming the field. Bounds come from the engine
 the engine still makes the final checks (e.g. a potential window that leaves the
 diagram once converted to the SHE) and its errors name their field too.
 
-Responses mirror the JSON the CLI prints (``app.payloads``, ``app.cli.screen_payload``).
+Responses mirror the JSON the CLI prints (``app.payloads``).
 """
 
 import math

@@ -6,6 +6,8 @@ from engine.species import Species
 from engine.thermo import temperature_notes
 from engine.water import conditions_note
 
+from .cautions import CAUTIONS
+
 
 def species_payload(species: Species) -> dict:
     """The identity of a species as every payload shows it."""
@@ -112,3 +114,24 @@ def sources_payload(catalog: Catalog, element: str) -> dict:
     return {"element": element, "species": species, "citations": {key: citation(catalog, key) for key in keys},
             "units": {"dgf": "kJ/mol", "dhf": "kJ/mol", "s": "J/(mol K)", "cp": "J/(mol K)"},
             "catalog_version": catalog.version}
+
+
+def screen_payload(result: dict) -> dict:
+    """The screen result with the cautions that go wherever results appear."""
+    return {**result, "cautions": list(CAUTIONS)}
+
+
+CSV_COLUMNS = ("rank", "material", "name", "element", "phase", "family", "verdict", "immunity", "passivation",
+               "corrosion", "instability_ev", "log10_dissolved", "margin_mv", "price_usd_per_kg", "price_year",
+               "hazards", "reason")
+
+
+def csv_rows(result: dict) -> list[dict]:
+    """One flat row per ranked candidate (the CSV download)."""
+    rows = []
+    for row in result["results"]:
+        flat = {key: row.get(key) for key in CSV_COLUMNS}
+        flat.update(row["fractions"])
+        flat["hazards"] = "; ".join(f"{h['species']}: {h['note']}" for h in row["hazards"])
+        rows.append(flat)
+    return rows

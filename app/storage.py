@@ -28,7 +28,7 @@ ID_PATTERN = r"^[A-Za-z0-9_-]{16}$"
 TITLE_MAX = 200
 NOTE_MAX = 2000
 FORMAT = 1
-"""Version of the stored JSON layout (the screen payload of ``app.cli.screen_payload``)."""
+"""Version of the stored JSON layout (the screen payload of ``app.payloads.screen_payload``)."""
 
 metadata = MetaData()
 

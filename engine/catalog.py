@@ -6,7 +6,8 @@ Every problem is reported as a :class:`CatalogError` naming the file, the
 entry and the field.
 """
 
-from dataclasses import dataclass, field
+import hashlib
+from dataclasses import dataclass, field, replace
 from functools import lru_cache
 from importlib import resources
 from pathlib import Path
@@ -118,7 +119,6 @@ class Catalog:
     sources: dict[str, SourceRow]
     scales: dict[str, ScaleRow]
     materials: dict = field(default_factory=dict)
-    raw_materials: dict = field(default_factory=dict)
     version: str = ""
 
     def system(self, element: str) -> ElementSystem:
@@ -197,25 +197,25 @@ def load_catalog(data_dir: Path | None = None, overlay: Path | None = None) -> C
             water = {s.name: s for s in system.species}
         else:
             systems[parsed.element] = system
-    catalog = Catalog(systems=systems, water=water, sources=sources, scales=scales)
+    read = [base / "sources.toml", base / "scales.toml", base / "materials.toml", *species_files.values()]
+    if overlay is not None:
+        read.append(overlay / "sources.toml")
+    catalog = Catalog(systems=systems, water=water, sources=sources, scales=scales, version=_digest(read))
     check_catalog(catalog)
     materials_path = base / "materials.toml"
     if materials_path.exists():
-        materials = load_materials(materials_path, catalog)
-        catalog = Catalog(systems=systems, water=water, sources=sources, scales=scales, materials=materials)
-    return _with_version(catalog, base, species_files)
+        catalog = replace(catalog, materials=load_materials(materials_path, catalog))
+    return catalog
 
 
-def _with_version(catalog: Catalog, base: Path, species_files: dict[str, Path]) -> Catalog:
-    """Stamp the catalog with a short digest of every data file it was built from."""
-    import hashlib
-
+def _digest(paths: list[Path]) -> str:
+    """A short digest of every data file a catalog was built from: the catalog's version."""
     digest = hashlib.sha256()
-    for path in [base / "sources.toml", base / "scales.toml", base / "materials.toml", *species_files.values()]:
+    for path in paths:
         if path.exists():
             digest.update(path.name.encode())
             digest.update(path.read_bytes())
-    return Catalog(**{**catalog.__dict__, "version": digest.hexdigest()[:12]})
+    return digest.hexdigest()[:12]
 
 
 @lru_cache(maxsize=1)

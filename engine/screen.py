@@ -81,14 +81,14 @@ def make_scenario(*, ph, potential, scale: str = "SHE", activity=DEFAULT_ACTIVIT
         if not materials:
             raise InputError("materials is empty: leave it out to screen every material", field="materials")
         ids = tuple(dict.fromkeys(material_id(catalog, m) for m in materials))
-    scenario = Scenario(
-        ph=(0.0, 0.0), potential=(0.0, 0.0), scale=scale, activity=check_activity(activity),
-        temperature=check_temperature(temperature), role=role, accept=accept_tuple, materials=ids, family=family,
+    temperature = check_temperature(temperature)
+    window = operating_window(catalog.scales, ph, potential, scale, temperature, Window())
+    return Scenario(
+        ph=window.ph, potential=window.potential, scale=window.scale, activity=check_activity(activity),
+        temperature=temperature, role=role, accept=accept_tuple, materials=ids, family=family,
         rank_by=check_order(rank_by) if rank_by is not None else DEFAULT_ORDER,
         weights=check_weights(weights) if weights else {},
     )
-    window = operating_window(catalog.scales, ph, potential, scale, scenario.temperature, Window())
-    return Scenario(**{**scenario.__dict__, "ph": window.ph, "potential": window.potential, "scale": window.scale})
 
 
 def material_id(catalog: Catalog, given: str) -> str:

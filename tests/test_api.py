@@ -8,7 +8,7 @@ from fastapi.testclient import TestClient
 
 from app import payloads
 from app.cautions import CAUTIONS
-from app.cli import screen_payload
+from app.payloads import screen_payload
 from app.main import create_app
 from app.settings import Settings
 from engine.catalog import default_catalog

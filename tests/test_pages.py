@@ -10,7 +10,7 @@ from markupsafe import escape
 
 from app.cautions import CAUTIONS
 from app.figures import rich_formula
-from app.cli import CSV_COLUMNS
+from app.payloads import CSV_COLUMNS
 from app.models import ViewQuery
 from app.payloads import diagram_payload, sources_payload
 from app.storage import save_shortlist

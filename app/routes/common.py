@@ -20,7 +20,7 @@ from engine.screen import make_scenario, screen
 
 from .. import urls
 from ..cautions import CAUTIONS
-from ..cli import CSV_COLUMNS, csv_rows, screen_payload
+from ..payloads import CSV_COLUMNS, csv_rows, screen_payload
 from ..models import ENGINE_FIELD_TO_PARAM, ErrorBody, FieldError, ScenarioIn, ViewQuery
 from ..settings import Settings
 from ..storage import open_storage
@@ -151,7 +151,7 @@ def not_found(what: str) -> HTTPException:
 # --- screening --------------------------------------------------------------------------
 
 def run_screen(scenario: ScenarioIn, catalog: Catalog, *, where: str | list = "body", rename: dict | None = None) -> dict:
-    """The screen payload (``app.cli.screen_payload`` of ``engine.screen.screen``) or an :class:`Unprocessable`."""
+    """The screen payload (``app.payloads.screen_payload`` of ``engine.screen.screen``) or an :class:`Unprocessable`."""
     if not catalog.materials:
         raise Unprocessable([FieldError(loc=[*([where] if isinstance(where, str) else where), "materials"],
                                         msg="materials: the catalog has no materials (data/materials.toml is missing)")])
@@ -174,7 +174,7 @@ def screen_view(view: ViewQuery, catalog: Catalog) -> tuple[dict | None, list[Fi
 
 
 def csv_response(result: dict, filename: str, notes: dict | None = None) -> Response:
-    """The ranked rows as CSV (``app.cli.csv_rows``), with a ``note`` column when notes are given."""
+    """The ranked rows as CSV (``app.payloads.csv_rows``), with a ``note`` column when notes are given."""
     stream = io.StringIO()
     columns = list(CSV_COLUMNS) + (["note"] if notes is not None else [])
     writer = csv.DictWriter(stream, fieldnames=columns, lineterminator="\n")
