@@ -102,3 +102,28 @@ def _keys_cited_by_code() -> set[str]:
         text = path.read_text(encoding="utf-8")
         keys |= {key for key in default_catalog().sources if re.search(rf"\b{re.escape(key)}\b", text)}
     return keys
+
+
+def test_every_source_field_in_every_data_file_resolves():
+    """Parameter files (IAPWS, Criss-Cobble, Connick-Powell, ...) cite sources by key too: each key resolves."""
+    import tomllib
+
+    known = set(default_catalog().sources)
+
+    def source_keys(node):
+        if isinstance(node, dict):
+            for key, value in node.items():
+                if key.endswith("source") and isinstance(value, str):
+                    yield value
+                else:
+                    yield from source_keys(value)
+        elif isinstance(node, list):
+            for item in node:
+                yield from source_keys(item)
+
+    for path in [*builtin_data_dir().glob("*.toml"), *builtin_data_dir().glob("species/*.toml")]:
+        if path.name == "sources.toml":
+            continue
+        with path.open("rb") as handle:
+            unknown = set(source_keys(tomllib.load(handle))) - known
+        assert not unknown, f"{path.name}: unknown source keys {sorted(unknown)}"
