@@ -13,7 +13,7 @@ from functools import cached_property
 
 import numpy as np
 
-from .geometry import EPS, WINDOW_EDGE, area, clip, edge_half_planes, rectangle
+from .geometry import EPS, WINDOW_EDGE, VerticalProfile, area, clip, edge_half_planes, rectangle, vertical_profile
 from .planes import Planes
 from .species import Species
 
@@ -56,6 +56,11 @@ class Domain:
     def half_planes(self) -> list[tuple[float, float, float]]:
         """The domain as half-planes a + b·pH + c·E ≤ 0 (one per edge)."""
         return edge_half_planes(self.vertices)
+
+    @cached_property
+    def profile(self) -> VerticalProfile:
+        """The domain's lower and upper edges as functions of pH."""
+        return vertical_profile(self.vertices)
 
     @cached_property
     def bounds(self) -> tuple[float, float, float, float]:
@@ -169,7 +174,11 @@ def stable_index_at(planes: Planes, ph: float, potential: float) -> int:
     On a boundary (Φ tied within :data:`TIE`) the species of the most severe region wins
     (:data:`SEVERITY`), then the earliest in catalog order: a documented, conservative answer.
     """
-    values = planes.at(ph, potential)
+    return lowest(planes, planes.at(ph, potential))
+
+
+def lowest(planes: Planes, values: np.ndarray) -> int:
+    """Index of the lowest of one point's Φ ``values``, ties broken as :func:`stable_index_at` says."""
     tied = np.flatnonzero(values <= values.min() + TIE)
     if len(tied) == 1:
         return int(tied[0])

@@ -7,6 +7,8 @@ window's own edges. Clipping a convex polygon by a half-plane keeps it convex
 (Sutherland & Hodgman, Commun. ACM 17, 32, 1974).
 """
 
+from dataclasses import dataclass
+
 import numpy as np
 
 EPS = 1e-12
@@ -31,18 +33,25 @@ def clip(vertices: np.ndarray, labels: np.ndarray, a: float, b: float, c: float,
     >>> area(v)
     2.0
     """
-    count = len(vertices)
-    if count == 0:
+    if len(vertices) == 0:
         return vertices, labels
-    points = vertices.tolist()
+    given = vertices.tolist()
+    points, kept_labels = _clip_points(given, labels.tolist(), a, b, c, label)
+    if points is given:
+        return vertices, labels
+    return np.array(points, dtype=float).reshape(-1, 2), np.array(kept_labels, dtype=int)
+
+
+def _clip_points(points: list, edge_labels: list, a: float, b: float, c: float, label: int) -> tuple[list, list]:
+    """:func:`clip` on plain lists of [x, y] points and edge labels (no arrays: this is the inner loop)."""
+    count = len(points)
     values = [a + b * x + c * y for x, y in points]
     scale = EPS * max(1.0, abs(a), abs(b), abs(c))
     inside = [v <= scale for v in values]
     if all(inside):
-        return vertices, labels
+        return points, edge_labels
     if not any(inside):
-        return vertices[:0], labels[:0]
-    edge_labels = labels.tolist()
+        return [], []
     out_points, out_labels = [], []
     for k in range(count):
         j = (k + 1) % count
@@ -63,7 +72,7 @@ def clip(vertices: np.ndarray, labels: np.ndarray, a: float, b: float, c: float,
             kept_labels.append(out_labels[k])
     if not kept_points:  # every point coincides: the piece has shrunk to a single point
         kept_points, kept_labels = out_points[:1], out_labels[:1]
-    return np.array(kept_points, dtype=float).reshape(-1, 2), np.array(kept_labels, dtype=int)
+    return kept_points, kept_labels
 
 
 def _crossing(p: list, q: list, value_p: float, value_q: float) -> list:
@@ -122,12 +131,13 @@ def edge_half_planes(vertices: np.ndarray) -> list[tuple[float, float, float]]:
 
 def intersect(piece: np.ndarray, half_planes: list[tuple[float, float, float]]) -> np.ndarray:
     """The part of ``piece`` (a convex polygon, a segment or a point) inside a convex polygon given by its half-planes."""
-    labels = np.full(len(piece), WINDOW_EDGE, dtype=int)
+    points = piece.tolist()
+    labels = [WINDOW_EDGE] * len(points)
     for a, b, c in half_planes:
-        piece, labels = clip(piece, labels, a, b, c, WINDOW_EDGE)
-        if len(piece) == 0:
+        if not points:
             break
-    return piece
+        points, labels = _clip_points(points, labels, a, b, c, WINDOW_EDGE)
+    return np.array(points, dtype=float).reshape(-1, 2)
 
 
 def measure(vertices: np.ndarray, dimension: int) -> float:
@@ -146,57 +156,86 @@ def measure(vertices: np.ndarray, dimension: int) -> float:
     return 1.0
 
 
-def convex_hull(points: np.ndarray) -> np.ndarray:
-    """Counter-clockwise convex hull by Andrew's monotone chain (Andrew, Inf. Proc. Lett. 9, 216, 1979).
+@dataclass(frozen=True)
+class VerticalProfile:
+    """A convex piece seen along E: its pH span and its lower and upper edges as functions of pH.
 
-    >>> convex_hull(np.array([[0, 0], [1, 0], [1, 1], [0, 1], [0.5, 0.5]])).tolist()
-    [[0.0, 0.0], [1.0, 0.0], [1.0, 1.0], [0.0, 1.0]]
+    Each edge is a chain of vertices with increasing pH, so ``numpy.interp`` evaluates it exactly.
     """
-    unique = sorted({(float(x), float(y)) for x, y in points})
-    if len(unique) <= 2:
-        return np.array(unique, dtype=float)
 
-    def cross(o, a, b):
-        return (a[0] - o[0]) * (b[1] - o[1]) - (a[1] - o[1]) * (b[0] - o[0])
+    x_min: float
+    x_max: float
+    lower: tuple[np.ndarray, np.ndarray]
+    upper: tuple[np.ndarray, np.ndarray]
 
-    lower: list = []
-    for p in unique:
-        while len(lower) >= 2 and cross(lower[-2], lower[-1], p) <= 0:
-            lower.pop()
-        lower.append(p)
-    upper: list = []
-    for p in reversed(unique):
-        while len(upper) >= 2 and cross(upper[-2], upper[-1], p) <= 0:
-            upper.pop()
-        upper.append(p)
-    return np.array(lower[:-1] + upper[:-1], dtype=float)
+    def below(self, x: np.ndarray) -> np.ndarray:
+        """The lowest E of the piece at each pH in ``x`` (within the span)."""
+        return np.interp(x, *self.lower)
+
+    def above(self, x: np.ndarray) -> np.ndarray:
+        """The highest E of the piece at each pH in ``x`` (within the span)."""
+        return np.interp(x, *self.upper)
 
 
-def vertical_overlap_shifts(piece: np.ndarray, polygon: np.ndarray) -> tuple[float, float] | None:
+def vertical_profile(vertices: np.ndarray) -> VerticalProfile:
+    """The profile of a counter-clockwise convex polygon, a segment or a point.
+
+    Walking counter-clockwise from the lowest of the leftmost vertices runs along the lower edge
+    to the rightmost vertices, then back along the upper edge.
+
+    >>> p = vertical_profile(rectangle(0, 2, 0, 1)[0])
+    >>> p.below(np.array([1.0])).tolist(), p.above(np.array([1.0])).tolist()
+    ([0.0], [1.0])
+    """
+    points = vertices.tolist()
+    xs = [x for x, _ in points]
+    x_min, x_max = min(xs), max(xs)
+    if x_max - x_min <= 1e-12:  # a point or a vertical segment
+        ys = [y for _, y in points]
+        return VerticalProfile(x_min, x_max, (np.array([x_min]), np.array([min(ys)])),
+                               (np.array([x_min]), np.array([max(ys)])))
+    if len(points) == 2:  # a slanted or horizontal segment: both edges are the segment
+        line = _chain(sorted(points))
+        return VerticalProfile(x_min, x_max, line, line)
+    left = [k for k, x in enumerate(xs) if x <= x_min + 1e-12]
+    right = [k for k, x in enumerate(xs) if x >= x_max - 1e-12]
+    height = lambda k: points[k][1]  # noqa: E731
+    lower = _walk(points, min(left, key=height), min(right, key=height))
+    upper = _walk(points, max(right, key=height), max(left, key=height))[::-1]
+    return VerticalProfile(x_min, x_max, _chain(lower), _chain(upper))
+
+
+def _walk(points: list, first: int, last: int) -> list:
+    """The vertices met walking counter-clockwise from index ``first`` to index ``last``, both included."""
+    chain, k = [points[first]], first
+    while k != last:
+        k = (k + 1) % len(points)
+        chain.append(points[k])
+    return chain
+
+
+def _chain(points: list) -> tuple[np.ndarray, np.ndarray]:
+    return np.array([p[0] for p in points]), np.array([p[1] for p in points])
+
+
+def vertical_overlap_shifts(piece: VerticalProfile, polygon: VerticalProfile) -> tuple[float, float] | None:
     """The interval of vertical shifts δ for which ``piece`` + (0, δ) meets the convex ``polygon``.
 
-    The shifts form the intersection of the line x = 0 with the Minkowski sum polygon ⊕ (−piece),
-    itself the convex hull of pairwise vertex differences (de Berg et al., Computational Geometry,
-    3rd ed., 2008, §13.3). None when no vertical shift makes them meet.
+    Over the pH span they share, the largest shift is max(upper_polygon − lower_piece), a concave
+    piecewise-linear function, and the smallest min(lower_polygon − upper_piece), a convex one:
+    both reach their extremes at a vertex pH of either piece or at an end of the span, so
+    evaluating there is exact. None when they share no pH.
 
-    >>> square = rectangle(0, 1, 0, 1)[0]
-    >>> vertical_overlap_shifts(np.array([[0.5, 3.0]]), square)
+    >>> square = vertical_profile(rectangle(0, 1, 0, 1)[0])
+    >>> vertical_overlap_shifts(vertical_profile(np.array([[0.5, 3.0]])), square)
     (-3.0, -2.0)
     """
-    if polygon[:, 0].min() > piece[:, 0].max() + 1e-12 or polygon[:, 0].max() < piece[:, 0].min() - 1e-12:
+    low, high = max(piece.x_min, polygon.x_min), min(piece.x_max, polygon.x_max)
+    if low > high + 1e-12:
         return None  # no pH in common: no vertical shift can make them meet
-    differences = (polygon[:, None, :] - piece[None, :, :]).reshape(-1, 2)
-    hull = convex_hull(differences)
-    xs, ys = hull[:, 0], hull[:, 1]
-    if xs.min() > 1e-12 or xs.max() < -1e-12:
-        return None
-    crossings = list(ys[np.abs(xs) <= 1e-12])
-    count = len(hull)
-    for k in range(count):
-        x0, y0 = hull[k]
-        x1, y1 = hull[(k + 1) % count]
-        if (x0 < 0 < x1) or (x1 < 0 < x0):
-            crossings.append(y0 + (0 - x0) * (y1 - y0) / (x1 - x0))
-    if not crossings:
-        return None
-    return float(min(crossings)), float(max(crossings))
+    high = max(low, high)
+    xs = np.clip(np.concatenate((piece.lower[0], piece.upper[0], polygon.lower[0], polygon.upper[0], (low, high))),
+                 low, high)
+    largest = (polygon.above(xs) - piece.below(xs)).max()
+    smallest = (polygon.below(xs) - piece.above(xs)).min()
+    return float(smallest), float(largest)

@@ -16,7 +16,7 @@ import numpy as np
 
 from .constants import thermal_voltage
 from .diagram import Diagram
-from .domains import SEVERITY, TIE
+from .domains import SEVERITY, lowest
 from .geometry import intersect, measure, vertical_overlap_shifts
 from .window import OperatingWindow
 
@@ -32,24 +32,32 @@ class Piece:
 
 
 def region_pieces(diagram: Diagram, window: OperatingWindow) -> list[Piece]:
-    """Each species' share of the window, largest first; shares sum to 1."""
-    vertices = window.vertices
-    if window.dimension == 0:
-        species = diagram.stable_species_at(*vertices[0])
-        return [Piece(species.name, species.region, 1.0)]
-    holders = {diagram.stable_species_at(*v) for v in vertices}
+    """Each species' share of the window, largest first; shares sum to 1.
+
+    When one species is the most stable at every vertex of the (convex) window it is the most
+    stable over all of it, since each Φ_i − Φ_j is linear.
+    """
+    planes = diagram.planes
+    holders = {lowest(planes, values) for values in planes.at_points(window.vertices)}
     if len(holders) == 1:
-        species = holders.pop()
-        if all(_inside(diagram, species, v) for v in vertices):
-            return [Piece(species.name, species.region, 1.0)]
+        species = planes.species[holders.pop()]
+        return [Piece(species.name, species.region, 1.0)]
     sizes = []
-    for domain in _overlapping(diagram.domains, vertices):
-        size = measure(intersect(vertices, domain.half_planes), window.dimension)
+    for domain in _overlapping(diagram.domains, window.vertices):
+        size = measure(_common_part(domain, window), window.dimension)
         if size > 0:
             sizes.append((domain.species, size))
     total = sum(size for _, size in sizes)
     pieces = [Piece(s.name, s.region, size / total) for s, size in sizes if size / total > 1e-12]
     return sorted(pieces, key=lambda p: -p.fraction)
+
+
+def _common_part(domain, window: OperatingWindow) -> np.ndarray:
+    """The vertices of domain ∩ window: the domain clipped by the window's edges (an area), or the
+    window (a segment or point) clipped by the domain's."""
+    if window.dimension == 2:
+        return intersect(domain.vertices, window.half_planes)
+    return intersect(window.vertices, domain.half_planes)
 
 
 def _overlapping(domains, vertices: np.ndarray) -> list:
@@ -61,12 +69,6 @@ def _overlapping(domains, vertices: np.ndarray) -> list:
                                        or d.bounds[1] > high_y + tolerance or d.bounds[3] < low_y - tolerance)]
 
 
-def _inside(diagram: Diagram, species, point) -> bool:
-    values = diagram.planes.at(*point)
-    index = diagram.planes.species.index(species)
-    return values[index] <= values.min() + TIE
-
-
 def region_fractions(pieces: list[Piece]) -> dict[str, float]:
     """Fractions of the window in immunity, passivation and corrosion."""
     fractions = {region: 0.0 for region in SEVERITY}
@@ -75,34 +77,44 @@ def region_fractions(pieces: list[Piece]) -> dict[str, float]:
     return {region: round(value, 12) for region, value in fractions.items()}
 
 
+def vertex_gaps(diagram: Diagram, window: OperatingWindow) -> list[list[float]]:
+    """Φ_i − min Φ [eV per metal atom] for each species i (rows) at each window corner (columns)."""
+    values = diagram.planes.at_points(window.vertices)
+    return (values - values.min(axis=1, keepdims=True)).T.tolist()
+
+
+def largest_gap(gaps: list[float], window: OperatingWindow) -> tuple[float, tuple[float, float]]:
+    """(the largest of one species' corner gaps, the first corner where it occurs)."""
+    top = max(gaps)
+    corner = next(k for k, gap in enumerate(gaps) if gap >= top - 1e-12)
+    return max(top, 0.0), window.corners[corner]
+
+
 def instability(diagram: Diagram, window: OperatingWindow, species_name: str) -> tuple[float, tuple[float, float]]:
-    """(max of Φ_candidate − min Φ over the window [eV per metal atom], the vertex where it occurs)."""
-    planes = diagram.planes
-    index = [s.name for s in planes.species].index(species_name)
-    best = (-1.0, (0.0, 0.0))
-    for ph, e in window.vertices:
-        values = planes.at(ph, e)
-        gap = float(values[index] - values.min())
-        if gap > best[0] + 1e-12:
-            best = (gap, (float(ph), float(e)))
-    return max(best[0], 0.0), best[1]
+    """(max of Φ_candidate − min Φ over the window [eV per metal atom], the corner where it occurs)."""
+    return largest_gap(vertex_gaps(diagram, window)[diagram.planes.index_of[species_name]], window)
 
 
 def log10_dissolved_at(diagram: Diagram, solid: int, ph: float, potential: float) -> float:
-    """log10 of Σ m_j·a_j over dissolved species j in equilibrium with solid ``solid`` at one point.
+    """log10 of Σ m_j·a_j over dissolved species j in equilibrium with solid ``solid`` at one point."""
+    return float(_log10_dissolved(diagram.planes, np.array([[ph, potential]]), np.array([solid]))[0])
+
+
+def _log10_dissolved(planes, points: np.ndarray, solids: np.ndarray) -> np.ndarray:
+    """log10 Σ m_j·a_j at each point, each in equilibrium with its own solid.
 
     Equilibrium with the solid: Φ_j° + (RT/F)·ln a_j / m_j = Φ_solid, so
     ln a_j = m_j·(Φ_solid − Φ_j°)/(RT/F), with Φ_j° the plane at unit activity.
     """
-    planes = diagram.planes
     kt = thermal_voltage(planes.temperature_k)
-    values = planes.at(ph, potential)
+    values = planes.at_points(points)
     dissolved = planes.dissolved
     m = planes.metal_atoms[dissolved]
-    standard = values[dissolved] - kt * np.log(planes.activity) / m
-    exponents = np.log(m) + m * (values[solid] - standard) / kt
-    top = exponents.max()
-    return float((top + np.log(np.exp(exponents - top).sum())) / np.log(10.0))
+    standard = values[:, dissolved] - kt * np.log(planes.activity) / m
+    solid_values = values[np.arange(len(points)), solids][:, None]
+    exponents = np.log(m) + m * (solid_values - standard) / kt
+    top = exponents.max(axis=1, keepdims=True)
+    return (top[:, 0] + np.log(np.exp(exponents - top).sum(axis=1))) / np.log(10.0)
 
 
 def max_dissolved(diagram: Diagram, window: OperatingWindow) -> tuple[float | None, tuple[float, float] | None]:
@@ -110,13 +122,17 @@ def max_dissolved(diagram: Diagram, window: OperatingWindow) -> tuple[float | No
     planes = diagram.planes
     if not planes.dissolved.any():
         return None, None
-    best: tuple[float, tuple[float, float]] | None = None
+    corners, solids = [], []
     for domain in _overlapping(diagram.solid_domains, window.vertices):
-        for ph, e in intersect(window.vertices, domain.half_planes).tolist():
-            value = log10_dissolved_at(diagram, domain.index, ph, e)
-            if best is None or value > best[0] + 1e-12:
-                best = (value, (float(ph), float(e)))
-    return best if best else (None, None)
+        part = _common_part(domain, window).tolist()
+        corners.extend(part)
+        solids.extend([domain.index] * len(part))
+    if not corners:
+        return None, None
+    values = _log10_dissolved(planes, np.array(corners), np.array(solids))
+    best = int(np.argmax(values >= values.max() - 1e-12))
+    ph, e = corners[best]
+    return float(values[best]), (float(ph), float(e))
 
 
 def potential_margin(diagram: Diagram, window: OperatingWindow, accept: set[str]) -> tuple[float, bool]:
@@ -132,7 +148,7 @@ def potential_margin(diagram: Diagram, window: OperatingWindow, accept: set[str]
     for domain in diagram.domains:
         if domain.region in accept:
             continue
-        shifts = vertical_overlap_shifts(window.vertices, domain.vertices)
+        shifts = vertical_overlap_shifts(window.profile, domain.profile)
         if shifts is not None:
             intervals.append(shifts)
     intervals.sort()

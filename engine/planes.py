@@ -10,6 +10,7 @@ species at the activity ``a``.
 """
 
 from dataclasses import dataclass
+from functools import cached_property
 
 import numpy as np
 
@@ -34,6 +35,15 @@ class Planes:
     def at(self, ph: float, potential: float) -> np.ndarray:
         """Φ of every species at one point (pH, E vs SHE [V])."""
         return self.offset + self.ph_slope * ph + self.e_slope * potential
+
+    def at_points(self, points: np.ndarray) -> np.ndarray:
+        """Φ of every species (columns) at each point (rows) of a (k, 2) array [[pH, E vs SHE], …]."""
+        return self.offset + self.ph_slope * points[:, :1] + self.e_slope * points[:, 1:]
+
+    @cached_property
+    def index_of(self) -> dict[str, int]:
+        """Each species' column, by formula."""
+        return {s.name: k for k, s in enumerate(self.species)}
 
 
 def build_planes(species: tuple[Species, ...], water_gibbs: float, activity: float,

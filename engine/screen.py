@@ -8,13 +8,14 @@ exact diagram (``engine.metrics``) and ranked by a rule shown to the user
 """
 
 from dataclasses import dataclass, field
+from functools import lru_cache
 
 from .catalog import Catalog, default_catalog
 from .diagram import DEFAULT_ACTIVITY, Diagram, check_activity, check_temperature, diagram
 from .domains import Window
 from .errors import InputError
 from .materials import FAMILIES, Material
-from .metrics import (instability, max_dissolved, potential_margin, region_fractions, region_pieces)
+from .metrics import largest_gap, max_dissolved, potential_margin, region_fractions, region_pieces, vertex_gaps
 from .ranking import DEFAULT_ORDER, RANK_KEYS, check_order, check_weights, rank, reason
 from .thermo import temperature_notes
 from .water import conditions_note
@@ -127,31 +128,47 @@ def gas_evolution(window: OperatingWindow, water) -> list[dict]:
 class ElementVerdict:
     """What the window meets on one element's diagram: shared by every material of that element."""
 
-    pieces: list
+    pieces: tuple
     fractions: dict
     dissolved: float | None
     dissolved_at: tuple[float, float] | None
     margin: float
     margin_capped: bool
-    gas: list
+    gas: tuple
+    gaps: list
     diagram: Diagram
 
 
 def judge_element(catalog: Catalog, scenario: Scenario, element: str, window: OperatingWindow) -> ElementVerdict:
-    """Region shares, largest dissolved metal, potential margin and gas evolution for one element."""
-    result = diagram(element, scenario.activity, scenario.temperature, catalog=catalog)
-    pieces = region_pieces(result, window)
+    """Region shares, largest dissolved metal, potential margin and gas evolution for one element.
+
+    The same scenario comes back often (the page, its CSV, the saved shortlist, every opening of a
+    shared link), so verdicts are kept, the least recently used dropped first.
+    """
+    return _judged(catalog, element, scenario.activity, scenario.temperature, window, tuple(sorted(scenario.accept)))
+
+
+VERDICTS_KEPT = 8192
+"""How many element verdicts :func:`judge_element` keeps: a few hundred whole-catalog scenarios."""
+
+
+@lru_cache(maxsize=VERDICTS_KEPT)
+def _judged(catalog: Catalog, element: str, activity: float, temperature: float, window: OperatingWindow,
+            accept: tuple[str, ...]) -> ElementVerdict:
+    result = diagram(element, activity, temperature, catalog=catalog)
+    pieces = tuple(region_pieces(result, window))
     dissolved, dissolved_at = max_dissolved(result, window)
-    margin, capped = potential_margin(result, window, set(scenario.accept))
+    margin, capped = potential_margin(result, window, set(accept))
     return ElementVerdict(pieces=pieces, fractions=region_fractions(pieces), dissolved=dissolved,
                           dissolved_at=dissolved_at, margin=margin, margin_capped=capped,
-                          gas=gas_evolution(window, result.water), diagram=result)
+                          gas=tuple(gas_evolution(window, result.water)), gaps=vertex_gaps(result, window),
+                          diagram=result)
 
 
 def screen_material(catalog: Catalog, scenario: Scenario, material: Material, window: OperatingWindow,
                     verdict: ElementVerdict) -> dict:
     """All metrics of one candidate (unranked), given its element's verdict."""
-    energy, energy_at = instability(verdict.diagram, window, material.phase)
+    energy, energy_at = largest_gap(verdict.gaps[verdict.diagram.planes.index_of[material.phase]], window)
     fractions = verdict.fractions
     met = {p.species for p in verdict.pieces}
     hazards = [{"kind": "toxic", "species": h.species, "note": h.note} for h in material.hazards if h.species in met]

@@ -7,6 +7,7 @@ segment, a point on both a point: ``dimension`` is 2, 1 or 0.
 """
 
 from dataclasses import dataclass
+from functools import cached_property
 
 import numpy as np
 
@@ -14,18 +15,37 @@ from .constants import ZERO_CELSIUS
 from .diagram import check_number
 from .domains import Window
 from .errors import InputError
+from .geometry import VerticalProfile, edge_half_planes, vertical_profile
 from .scales import canonical_scale, to_she
 
 
 @dataclass(frozen=True)
 class OperatingWindow:
-    """The window's vertices [[pH, E vs SHE], …] counter-clockwise, and its dimension (2, 1 or 0)."""
+    """The window's corners ((pH, E vs SHE), …) counter-clockwise, and its dimension (2, 1 or 0).
 
-    vertices: np.ndarray
+    Equal windows compare and hash equal, so results computed over one can be reused.
+    """
+
+    corners: tuple[tuple[float, float], ...]
     dimension: int
     ph: tuple[float, float]
     potential: tuple[float, float]
     scale: str
+
+    @cached_property
+    def vertices(self) -> np.ndarray:
+        """The corners as an (n, 2) array [[pH, E vs SHE], …]."""
+        return np.array(self.corners, dtype=float)
+
+    @cached_property
+    def half_planes(self) -> list[tuple[float, float, float]]:
+        """The window as half-planes a + b·pH + c·E ≤ 0 (an area only; empty for a segment or a point)."""
+        return edge_half_planes(self.vertices) if self.dimension == 2 else []
+
+    @cached_property
+    def profile(self) -> VerticalProfile:
+        """The window's lower and upper edges as functions of pH."""
+        return vertical_profile(self.vertices)
 
 
 def check_range(values, field: str, low: float, high: float, unit: str = "") -> tuple[float, float]:
@@ -57,11 +77,11 @@ def operating_window(scales: dict, ph, potential, scale: str, temperature_c: flo
     for point in corners:
         if not any(abs(point[0] - q[0]) < 1e-12 and abs(point[1] - q[1]) < 1e-12 for q in unique):
             unique.append(point)
-    vertices = np.array(unique, dtype=float)
-    lowest, highest = vertices[:, 1].min(), vertices[:, 1].max()
+    lowest, highest = min(e for _, e in unique), max(e for _, e in unique)
     if lowest < plot.e_min - 1e-9 or highest > plot.e_max + 1e-9:
         raise InputError(
             f"potential must stay within the diagram's {plot.e_min:g} to {plot.e_max:g} V vs SHE "
             f"(this window spans {lowest:.3f} to {highest:.3f} V vs SHE)", field="potential")
     dimension = 2 if len(unique) == 4 else (1 if len(unique) == 2 else 0)
-    return OperatingWindow(vertices=vertices, dimension=dimension, ph=ph_range, potential=e_range, scale=scale)
+    return OperatingWindow(corners=tuple((float(p), float(e)) for p, e in unique), dimension=dimension,
+                           ph=ph_range, potential=e_range, scale=scale)

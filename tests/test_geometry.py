@@ -46,7 +46,7 @@ def test_contains():
 @example(x=1.0, width=1.0, y=0.0, height=0.0, a=0.0, b=0.0)  # a segment touching the square at one pH
 def test_vertical_overlap_shifts_match_a_scan(x, width, y, height, a, b):
     """Shift the piece in small steps and test overlap with `intersect` (a sampled check of the exact interval)."""
-    from engine.geometry import edge_half_planes, intersect, vertical_overlap_shifts
+    from engine.geometry import edge_half_planes, intersect, vertical_overlap_shifts, vertical_profile
 
     polygon, labels = rectangle(-1, 1, -1, 1)
     polygon, _ = clip(polygon, labels, -0.5, a * 0.3, b * 0.3 + 0.01, 0)  # a convex, possibly slanted shape
@@ -58,7 +58,7 @@ def test_vertical_overlap_shifts_match_a_scan(x, width, y, height, a, b):
         piece = np.array([[x, y]])
     elif width == 0 or height == 0:
         piece = np.array([corners[0], corners[2]])
-    shifts = vertical_overlap_shifts(piece, polygon)
+    shifts = vertical_overlap_shifts(vertical_profile(piece), vertical_profile(polygon))
     planes = edge_half_planes(polygon)
     meets = [d for d in np.linspace(-6, 6, 1201) if len(intersect(piece + np.array([0.0, d]), planes))]
     if shifts is None:

@@ -159,3 +159,33 @@ def test_bad_scenarios_name_their_field(kwargs, field, message):
     with pytest.raises(InputError, match=message) as caught:
         make_scenario(**kwargs)
     assert caught.value.field == field
+
+
+def test_a_repeated_scenario_reuses_element_verdicts_and_answers_the_same():
+    from engine.screen import _judged
+
+    scenario = make_scenario(ph=[4.2, 5.3], potential=[-0.31, 0.44], role="cathode")
+    _judged.cache_clear()
+    fresh = screen(scenario)
+    computed = _judged.cache_info().misses
+    again = screen(make_scenario(ph=[4.2, 5.3], potential=[-0.31, 0.44], role="cathode"))
+    assert _judged.cache_info().misses == computed  # every verdict came from the first screen
+    assert again["results"] == fresh["results"]
+    other = screen(make_scenario(ph=[4.2, 5.3], potential=[-0.31, 0.44], role="anode"))  # other accepted regions
+    assert _judged.cache_info().misses == 2 * computed
+    assert other["results"] != fresh["results"]
+
+
+def test_an_overlay_catalog_never_shares_verdicts_with_the_built_in_one(tmp_path):
+    # Zn2+ made far less stable in an overlay (a value invented for this test): the same scenario,
+    # screened first on the built-in catalog, must then see the overlay's own diagram.
+    from engine.catalog import builtin_data_dir, load_catalog
+
+    original = (builtin_data_dir() / "species" / "Zn.toml").read_text(encoding="utf-8")
+    (tmp_path / "Zn.toml").write_text(original.replace("dgf = -147.06", "dgf = -50.00"), encoding="utf-8")
+    scenario = dict(ph=[2, 3], potential=[-0.9, -0.8], materials=["Zn"], role="cathode")
+    built_in = screen(make_scenario(**scenario))["results"][0]
+    overlay = load_catalog(overlay=tmp_path)
+    changed = screen(make_scenario(**scenario, catalog=overlay), overlay)["results"][0]
+    assert built_in["fractions"]["corrosion"] == 1.0  # Zn/Zn2+ at 10^-6 lies at -0.94 V vs SHE
+    assert changed["fractions"]["immunity"] == 1.0  # now at -50/(2F) - 0.177 = -0.44 V
