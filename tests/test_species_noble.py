@@ -265,3 +265,13 @@ def test_metal_of_each_system_is_the_zero_of_gibbs_energy():
         metal = [s for s in default_catalog().system(element).species if s.is_element]
         assert len(metal) == 1 and metal[0].dgf == 0.0
     assert default_catalog().system("Hg").find("Hg").phase == "liquid"
+
+
+def test_iridium_oxide_holds_as_a_film_at_acid_oxygen_evolution():
+    # Common practice: IrO2 is the anode catalyst of acid (PEM) water electrolysers because it stays a solid
+    # film at 1.5-1.7 V vs RHE in pH 0-1; the iridate IrO4^2- takes over only far above, or in strong alkali.
+    d = diagram("Ir")
+    for ph in (0.0, 0.5, 1.0):
+        for rhe in (1.5, 1.6, 1.7):
+            assert d.stable_species_at(ph, rhe - d.water.slope * ph).name == "IrO2"
+    assert d.stable_species_at(14.0, d.water.oxygen(14.0)).name == "IrO4^2-"
