@@ -21,7 +21,6 @@ from .geometry import intersect, measure, vertical_overlap_shifts
 from .window import OperatingWindow
 
 
-
 @dataclass(frozen=True)
 class Piece:
     """One species' share of the window."""
