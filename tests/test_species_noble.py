@@ -7,13 +7,13 @@ same compilations that gave the data; such checks test the conversion and the
 rest of the data set around them, and say so.
 """
 
-import math
 
 import numpy as np
 import pytest
 
 from engine.catalog import default_catalog
 from engine.diagram import diagram
+from tests.utils.libraries import GIBBS_COLUMN, LIBRARY_TOLERANCE, crc_aqueous_gibbs, crc_standard_gibbs, ion_formula
 from tests.utils.reactions import Check
 
 ELEMENTS = ("Pt", "Pd", "Rh", "Ir", "Ru", "Os", "Au", "Ag", "Cu", "Hg", "Re")
@@ -126,45 +126,25 @@ LIBRARY_DIFFERENCES = {
     ),
 }
 
-LIBRARY_TOLERANCE = 2.0
-"""kJ/mol: differences beyond this must be explained in LIBRARY_DIFFERENCES."""
-
-_LIBRARY_COLUMN = {"solid": "Gfs", "liquid": "Gfl", "gas": "Gfg"}
-
-
-def _library_formula(formula: str, charge: int) -> str:
-    """The aqueous table's way of writing an ion: Cu+2, Ag+, Hg2+2, ReO4-."""
-    if charge == 0:
-        return formula
-    sign = "+" if charge > 0 else "-"
-    return f"{formula}{sign}{abs(charge) if abs(charge) > 1 else ''}"
-
-
 def _library_values():
     """(species name, catalog dgf, library dgf [kJ/mol]) for every species the libraries also carry."""
-    electrochem = pytest.importorskip("thermo.electrochem")
     chemicals = pytest.importorskip("chemicals")
-    heat_capacity = pytest.importorskip("chemicals.heat_capacity")
-    aqueous = electrochem.CRC_aqueous_thermodynamics
-    standard = heat_capacity.CRC_standard_data
+    aqueous = crc_aqueous_gibbs()
     pairs = []
     for element in ELEMENTS:
         for species in default_catalog().system(element).species:
             if species.is_element:
                 continue
             if species.phase == "aqueous":
-                rows = aqueous[aqueous["Formula"] == _library_formula(species.formula, species.charge)]
-                if len(rows) and not math.isnan(rows["Gf(aq)"].iloc[0]):
-                    pairs.append((species.name, species.dgf, rows["Gf(aq)"].iloc[0] / 1000.0))
-                continue
-            try:
-                cas = chemicals.CAS_from_any(species.formula)
-            except Exception:  # the library does not know the formula
-                continue
-            if cas in standard.index:
-                value = standard.loc[cas][_LIBRARY_COLUMN[species.phase]]
-                if not math.isnan(value):
-                    pairs.append((species.name, species.dgf, value / 1000.0))
+                value = aqueous.get(ion_formula(species.formula, species.charge))
+            else:
+                try:
+                    cas = chemicals.CAS_from_any(species.formula)
+                except Exception:  # the library does not know the formula
+                    continue
+                value = crc_standard_gibbs(cas, GIBBS_COLUMN[species.phase])
+            if value is not None:
+                pairs.append((species.name, species.dgf, value))
     return pairs
 
 

@@ -6,12 +6,12 @@ was written); the source named beside each value is where it is printed. The tol
 project: 0.015 V on a standard potential, 0.3 on a log K.
 """
 
-import numpy as np
 import pytest
 
 from engine.catalog import default_catalog
 from engine.constants import KJ_PER_EV
 from engine.diagram import diagram
+from tests.utils.libraries import LIBRARY_TOLERANCE, crc_aqueous_gibbs, crc_standard_gibbs
 from tests.utils.reactions import Check
 
 E0_TOL = 0.015
@@ -193,9 +193,6 @@ LIBRARY_DIFFERENCES = {
 }
 """Each catalog-vs-library difference larger than 2 kJ/mol, explained."""
 
-LIBRARY_LIMIT = 2.0  # kJ/mol
-
-
 def _catalog_species(name):
     for element in ("Pb", "Al", "Mg", "Sn", "Cd", "In", "Bi", "Sb", "Ga", "Ge", "C"):
         for species in default_catalog().system(element).species:
@@ -204,44 +201,35 @@ def _catalog_species(name):
     raise KeyError(name)
 
 
-def _library_aqueous():
-    electrochem = pytest.importorskip("thermo.electrochem")
-    table = electrochem.CRC_aqueous_thermodynamics
-    return {row["Formula"]: row["Gf(aq)"] / 1000.0 for _, row in table.iterrows()}
-
-
 @pytest.mark.parametrize("name", sorted(AQUEOUS_FORMULAS))
 def test_aqueous_gibbs_energy_agrees_with_crc_library(name):
-    library = _library_aqueous()
+    library = crc_aqueous_gibbs()
     formula = AQUEOUS_FORMULAS[name]
     assert formula in library, f"{formula} not in the library table"
     difference = _catalog_species(name).dgf - library[formula]
-    assert abs(difference) <= LIBRARY_LIMIT or name in LIBRARY_DIFFERENCES, (
+    assert abs(difference) <= LIBRARY_TOLERANCE or name in LIBRARY_DIFFERENCES, (
         f"{name}: catalog differs from the CRC aqueous table by {difference:.2f} kJ/mol, unexplained")
 
 
 @pytest.mark.parametrize("name", sorted(CONDENSED_CAS))
 def test_compound_gibbs_energy_agrees_with_crc_library(name):
-    heat_capacity = pytest.importorskip("chemicals.heat_capacity")
     cas, column = CONDENSED_CAS[name]
-    value = heat_capacity.CRC_standard_data.loc[cas, column]
-    assert np.isfinite(value), f"{name}: no {column} in the library row {cas}"
-    difference = _catalog_species(name).dgf - value / 1000.0
-    assert abs(difference) <= LIBRARY_LIMIT or name in LIBRARY_DIFFERENCES, (
+    value = crc_standard_gibbs(cas, column)
+    assert value is not None, f"{name}: no {column} in the library row {cas}"
+    difference = _catalog_species(name).dgf - value
+    assert abs(difference) <= LIBRARY_TOLERANCE or name in LIBRARY_DIFFERENCES, (
         f"{name}: catalog differs from CRC_standard_data by {difference:.2f} kJ/mol, unexplained")
 
 
 def test_every_library_explanation_is_needed():
     # an explanation for a difference that is not there is stale
-    library = _library_aqueous()
-    heat_capacity = pytest.importorskip("chemicals.heat_capacity")
+    library = crc_aqueous_gibbs()
     for name in LIBRARY_DIFFERENCES:
         if name in AQUEOUS_FORMULAS:
             reference = library[AQUEOUS_FORMULAS[name]]
         else:
-            cas, column = CONDENSED_CAS[name]
-            reference = heat_capacity.CRC_standard_data.loc[cas, column] / 1000.0
-        assert abs(_catalog_species(name).dgf - reference) > LIBRARY_LIMIT, name
+            reference = crc_standard_gibbs(*CONDENSED_CAS[name])
+        assert abs(_catalog_species(name).dgf - reference) > LIBRARY_TOLERANCE, name
 
 
 # --- well-known features of the diagrams at 10^-6 (common practice) ---

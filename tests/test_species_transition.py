@@ -6,12 +6,12 @@ copied from a file; each is tabulated independently of the numbers in
 facts of the trade (common practice) at a dissolved activity of 10^-6.
 """
 
-import math
 
 import pytest
 
 from engine.catalog import default_catalog
 from engine.diagram import diagram
+from tests.utils.libraries import LIBRARY_TOLERANCE, crc_aqueous_gibbs, crc_standard_gibbs, ion_formula
 from tests.utils.reactions import Check
 
 ELEMENTS = ("Ni", "Ti", "Cr", "Mn", "Co", "Ta", "W", "Mo", "V", "Nb", "Zr", "Hf")
@@ -142,16 +142,6 @@ LIBRARY_DIFFERENCES: dict[str, str] = {}
 """Species whose dgf differs from the library's by more than 2 kJ/mol, with the reason. None at present:
 the CRC tables carry the NBS values (CODATA ones for rutile, 0.7 kJ/mol apart)."""
 
-LIBRARY_LIMIT = 2.0
-"""Largest unexplained difference from a reference library [kJ/mol]."""
-
-
-def _library_charge(charge: int) -> str:
-    """The charge as the CRC aqueous table writes it after the formula: '+', '+2', '-', '-2'."""
-    sign = "+" if charge > 0 else "-"
-    return sign + (str(abs(charge)) if abs(charge) > 1 else "")
-
-
 def _catalog_species():
     catalog = default_catalog()
     for element in ELEMENTS:
@@ -159,35 +149,30 @@ def _catalog_species():
 
 
 def _unexplained(differences: dict[str, float]) -> dict[str, float]:
-    return {name: d for name, d in differences.items() if abs(d) > LIBRARY_LIMIT and name not in LIBRARY_DIFFERENCES}
+    return {name: d for name, d in differences.items() if abs(d) > LIBRARY_TOLERANCE and name not in LIBRARY_DIFFERENCES}
 
 
 def test_dissolved_species_agree_with_the_crc_aqueous_table():
-    electrochem = pytest.importorskip("thermo.electrochem")
-    table = electrochem.CRC_aqueous_thermodynamics
-    by_formula = {row["Formula"]: row["Gf(aq)"] for _, row in table.iterrows()}
+    library = crc_aqueous_gibbs()
     differences = {}
     for species in _catalog_species():
         if not species.is_dissolved:
             continue
-        gibbs = by_formula.get(species.formula + _library_charge(species.charge))
-        if gibbs is not None and not math.isnan(gibbs):
-            differences[species.name] = species.dgf - gibbs / 1000.0
+        gibbs = library.get(ion_formula(species.formula, species.charge))
+        if gibbs is not None:
+            differences[species.name] = species.dgf - gibbs
     assert len(differences) >= 10, differences  # the look-up really matches (Ni2+, NiOH+, Mn2+, MnO4-, CrO4 2-, ...)
     assert _unexplained(differences) == {}
 
 
 def test_solids_agree_with_the_crc_standard_table():
-    heat_capacity = pytest.importorskip("chemicals.heat_capacity")
-    table = heat_capacity.CRC_standard_data
     catalog_solids = {s.name: s for s in _catalog_species() if s.phase == "solid"}
     differences = {}
     for name, cas in SOLID_CAS.items():
         assert name in catalog_solids, name
-        assert cas in table.index, (name, cas)
-        gibbs = table.loc[cas, "Gfs"]
-        assert not math.isnan(gibbs), (name, cas)
-        differences[name] = catalog_solids[name].dgf - gibbs / 1000.0
+        gibbs = crc_standard_gibbs(cas)
+        assert gibbs is not None, (name, cas)
+        differences[name] = catalog_solids[name].dgf - gibbs
     assert _unexplained(differences) == {}
 
 
