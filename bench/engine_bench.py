@@ -12,7 +12,7 @@ from engine.catalog import default_catalog
 from engine.diagram import _cached_diagram
 from engine.domains import Window, boundaries, stability_domains
 from engine.planes import build_planes
-from engine.screen import _judged, make_scenario, screen
+from engine.screen import VERDICTS, make_scenario, screen
 from engine.species import Species
 
 WINDOW = Window()
@@ -81,7 +81,7 @@ def screen_ms() -> dict[str, dict[str, float]]:
         scenario = make_scenario(**window, catalog=catalog)
 
         def fresh():
-            _judged.cache_clear()
+            VERDICTS.clear()
             screen(scenario, catalog)
 
         figures[name] = {"fresh": round(median_ms(fresh, repeats=20), 3),

@@ -9,10 +9,13 @@ import math
 from dataclasses import dataclass
 from functools import cached_property, lru_cache
 
+import numpy as np
+
 from .catalog import Catalog, ElementSystem, default_catalog
 from .constants import ZERO_CELSIUS
 from .domains import Boundary, Domain, Window, boundaries, stability_domains, stable_index_at
 from .errors import InputError
+from .geometry import stack
 from .planes import Planes, build_planes
 from .species import Species
 from .thermo import formation_gibbs
@@ -45,6 +48,12 @@ class Diagram:
     def solid_domains(self) -> tuple[Domain, ...]:
         """Domains of the solids alone (dissolved species left out): where each solid is the most stable solid."""
         return tuple(stability_domains(self.planes, self.window, competitors=~self.planes.dissolved))
+
+    @cached_property
+    def outline_stack(self) -> np.ndarray:
+        """Every domain's polygon, then every solid domain's, as one padded stack (``engine.geometry.stack``)."""
+        polygons = [d.vertices for d in self.domains] + [d.vertices for d in self.solid_domains]
+        return stack(polygons, max(len(p) for p in polygons))
 
     def stable_species_at(self, ph: float, potential: float) -> Species:
         """The species of lowest Φ at (pH, E [V vs SHE])."""

@@ -9,11 +9,10 @@ polygon satisfies them, so the result is exact, not sampled.
 """
 
 from dataclasses import dataclass
-from functools import cached_property
 
 import numpy as np
 
-from .geometry import EPS, WINDOW_EDGE, VerticalProfile, area, clip, edge_half_planes, rectangle, vertical_profile
+from .geometry import EPS, WINDOW_EDGE, area, clip, rectangle
 from .planes import Planes
 from .species import Species
 
@@ -51,22 +50,6 @@ class Domain:
     @property
     def area(self) -> float:
         return area(self.vertices)
-
-    @cached_property
-    def half_planes(self) -> list[tuple[float, float, float]]:
-        """The domain as half-planes a + b·pH + c·E ≤ 0 (one per edge)."""
-        return edge_half_planes(self.vertices)
-
-    @cached_property
-    def profile(self) -> VerticalProfile:
-        """The domain's lower and upper edges as functions of pH."""
-        return vertical_profile(self.vertices)
-
-    @cached_property
-    def bounds(self) -> tuple[float, float, float, float]:
-        """(pH min, E min, pH max, E max) of the domain."""
-        low, high = self.vertices.min(axis=0), self.vertices.max(axis=0)
-        return float(low[0]), float(low[1]), float(high[0]), float(high[1])
 
 
 @dataclass(frozen=True)
@@ -174,11 +157,7 @@ def stable_index_at(planes: Planes, ph: float, potential: float) -> int:
     On a boundary (Φ tied within :data:`TIE`) the species of the most severe region wins
     (:data:`SEVERITY`), then the earliest in catalog order: a documented, conservative answer.
     """
-    return lowest(planes, planes.at(ph, potential))
-
-
-def lowest(planes: Planes, values: np.ndarray) -> int:
-    """Index of the lowest of one point's Φ ``values``, ties broken as :func:`stable_index_at` says."""
+    values = planes.at(ph, potential)
     tied = np.flatnonzero(values <= values.min() + TIE)
     if len(tied) == 1:
         return int(tied[0])

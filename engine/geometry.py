@@ -4,10 +4,10 @@ A polygon is an (n, 2) array of vertices in counter-clockwise order with, for
 each edge k (from vertex k to vertex k+1), an integer label saying which line
 made it: the index of the competing species, or a negative number for the
 window's own edges. Clipping a convex polygon by a half-plane keeps it convex
-(Sutherland & Hodgman, Commun. ACM 17, 32, 1974).
+(Sutherland & Hodgman, Commun. ACM 17, 32, 1974). A stack is many polygons in
+one (n, width, 2) array, padded by repeating vertices, so that one clip serves
+them all (``clip_stack``).
 """
-
-from dataclasses import dataclass
 
 import numpy as np
 
@@ -118,124 +118,53 @@ def is_convex(vertices: np.ndarray, tolerance: float = 1e-9) -> bool:
     return bool((cross >= -tolerance).all())
 
 
-def edge_half_planes(vertices: np.ndarray) -> list[tuple[float, float, float]]:
-    """The half-planes a + b·x + c·y ≤ 0 whose intersection is a counter-clockwise convex polygon."""
-    points = vertices.tolist()
-    planes = []
-    for k, (px, py) in enumerate(points):
-        qx, qy = points[(k + 1) % len(points)]
-        dx, dy = qx - px, qy - py
-        planes.append((-dy * px + dx * py, dy, -dx))
-    return planes
+def stack(polygons: list[np.ndarray], width: int) -> np.ndarray:
+    """Convex polygons as one (n, width, 2) array, each padded by repeating its last vertex.
 
+    A repeated vertex adds a zero-length edge, which changes no area, no extent and no clip.
 
-def intersect(piece: np.ndarray, half_planes: list[tuple[float, float, float]]) -> np.ndarray:
-    """The part of ``piece`` (a convex polygon, a segment or a point) inside a convex polygon given by its half-planes."""
-    points = piece.tolist()
-    labels = [WINDOW_EDGE] * len(points)
-    for a, b, c in half_planes:
-        if not points:
-            break
-        points, labels = _clip_points(points, labels, a, b, c, WINDOW_EDGE)
-    return np.array(points, dtype=float).reshape(-1, 2)
-
-
-def measure(vertices: np.ndarray, dimension: int) -> float:
-    """Size of a piece: area (dimension 2), length (1) or 1 for a non-empty point (0).
-
-    >>> measure(np.array([[0.0, 0.0], [3.0, 4.0]]), 1)
-    5.0
+    >>> stack([rectangle(0, 1, 0, 1)[0]], 5)[0, 4].tolist()
+    [0.0, 1.0]
     """
-    if len(vertices) == 0:
-        return 0.0
-    if dimension == 2:
-        return abs(area(vertices))
-    if dimension == 1:
-        spread = vertices[:, None, :] - vertices[None, :, :]
-        return float(np.sqrt((spread ** 2).sum(axis=2)).max())
-    return 1.0
+    points = np.empty((len(polygons), width, 2))
+    for row, polygon in enumerate(polygons):
+        count = len(polygon)
+        points[row, :count] = polygon
+        points[row, count:] = polygon[count - 1]
+    return points
 
 
-@dataclass(frozen=True)
-class VerticalProfile:
-    """A convex piece seen along E: its pH span and its lower and upper edges as functions of pH.
+def clip_stack(points: np.ndarray, alive: np.ndarray, a: float, b: float, c: float) -> tuple[np.ndarray, np.ndarray]:
+    """:func:`clip` of every polygon of a stack by the same half-plane a + b·x + c·y ≤ 0, all at once.
 
-    Each edge is a chain of vertices with increasing pH, so ``numpy.interp`` evaluates it exactly.
+    Each edge k contributes its start vertex when inside and its crossing point when it crosses the
+    line (Sutherland & Hodgman 1974); the kept points move to the front of their row, which is padded
+    again with its last point. ``alive`` marks the rows that are not (yet) empty.
+
+    >>> square = stack([rectangle(0, 2, 0, 2)[0]], 4)
+    >>> half, alive = clip_stack(square, np.array([True]), -1.0, 1.0, 0.0)   # keep x <= 1
+    >>> float(stack_areas(half)[0]), bool(alive[0])
+    (2.0, True)
     """
-
-    x_min: float
-    x_max: float
-    lower: tuple[np.ndarray, np.ndarray]
-    upper: tuple[np.ndarray, np.ndarray]
-
-    def below(self, x: np.ndarray) -> np.ndarray:
-        """The lowest E of the piece at each pH in ``x`` (within the span)."""
-        return np.interp(x, *self.lower)
-
-    def above(self, x: np.ndarray) -> np.ndarray:
-        """The highest E of the piece at each pH in ``x`` (within the span)."""
-        return np.interp(x, *self.upper)
-
-
-def vertical_profile(vertices: np.ndarray) -> VerticalProfile:
-    """The profile of a counter-clockwise convex polygon, a segment or a point.
-
-    Walking counter-clockwise from the lowest of the leftmost vertices runs along the lower edge
-    to the rightmost vertices, then back along the upper edge.
-
-    >>> p = vertical_profile(rectangle(0, 2, 0, 1)[0])
-    >>> p.below(np.array([1.0])).tolist(), p.above(np.array([1.0])).tolist()
-    ([0.0], [1.0])
-    """
-    points = vertices.tolist()
-    xs = [x for x, _ in points]
-    x_min, x_max = min(xs), max(xs)
-    if x_max - x_min <= 1e-12:  # a point or a vertical segment
-        ys = [y for _, y in points]
-        return VerticalProfile(x_min, x_max, (np.array([x_min]), np.array([min(ys)])),
-                               (np.array([x_min]), np.array([max(ys)])))
-    if len(points) == 2:  # a slanted or horizontal segment: both edges are the segment
-        line = _chain(sorted(points))
-        return VerticalProfile(x_min, x_max, line, line)
-    left = [k for k, x in enumerate(xs) if x <= x_min + 1e-12]
-    right = [k for k, x in enumerate(xs) if x >= x_max - 1e-12]
-    height = lambda k: points[k][1]  # noqa: E731
-    lower = _walk(points, min(left, key=height), min(right, key=height))
-    upper = _walk(points, max(right, key=height), max(left, key=height))[::-1]
-    return VerticalProfile(x_min, x_max, _chain(lower), _chain(upper))
+    rows, width = points.shape[:2]
+    values = a + b * points[..., 0] + c * points[..., 1]
+    inside = values <= EPS * max(1.0, abs(a), abs(b), abs(c))
+    following = np.roll(points, -1, axis=1)
+    following_values = np.roll(values, -1, axis=1)
+    crossing = inside != np.roll(inside, -1, axis=1)
+    t = values / np.where(crossing, values - following_values, 1.0)
+    crossings = points + t[..., None] * (following - points)
+    candidates = np.stack((points, crossings), axis=2).reshape(rows, 2 * width, 2)
+    kept = np.stack((inside, crossing), axis=2).reshape(rows, 2 * width)
+    counts = kept.sum(axis=1)
+    new_width = max(int(counts.max(initial=0)), 1)
+    order = np.argsort(~kept, axis=1, kind="stable")[:, :new_width]
+    slots = np.minimum(np.arange(new_width)[None, :], np.maximum(counts - 1, 0)[:, None])
+    order = np.take_along_axis(order, slots, axis=1)
+    return np.take_along_axis(candidates, order[..., None], axis=1), alive & (counts > 0)
 
 
-def _walk(points: list, first: int, last: int) -> list:
-    """The vertices met walking counter-clockwise from index ``first`` to index ``last``, both included."""
-    chain, k = [points[first]], first
-    while k != last:
-        k = (k + 1) % len(points)
-        chain.append(points[k])
-    return chain
-
-
-def _chain(points: list) -> tuple[np.ndarray, np.ndarray]:
-    return np.array([p[0] for p in points]), np.array([p[1] for p in points])
-
-
-def vertical_overlap_shifts(piece: VerticalProfile, polygon: VerticalProfile) -> tuple[float, float] | None:
-    """The interval of vertical shifts δ for which ``piece`` + (0, δ) meets the convex ``polygon``.
-
-    Over the pH span they share, the largest shift is max(upper_polygon − lower_piece), a concave
-    piecewise-linear function, and the smallest min(lower_polygon − upper_piece), a convex one:
-    both reach their extremes at a vertex pH of either piece or at an end of the span, so
-    evaluating there is exact. None when they share no pH.
-
-    >>> square = vertical_profile(rectangle(0, 1, 0, 1)[0])
-    >>> vertical_overlap_shifts(vertical_profile(np.array([[0.5, 3.0]])), square)
-    (-3.0, -2.0)
-    """
-    low, high = max(piece.x_min, polygon.x_min), min(piece.x_max, polygon.x_max)
-    if low > high + 1e-12:
-        return None  # no pH in common: no vertical shift can make them meet
-    high = max(low, high)
-    xs = np.clip(np.concatenate((piece.lower[0], piece.upper[0], polygon.lower[0], polygon.upper[0], (low, high))),
-                 low, high)
-    largest = (polygon.above(xs) - piece.below(xs)).max()
-    smallest = (polygon.below(xs) - piece.above(xs)).min()
-    return float(smallest), float(largest)
+def stack_areas(points: np.ndarray) -> np.ndarray:
+    """Shoelace area of every polygon of a stack (positive when counter-clockwise)."""
+    x, y = points[..., 0], points[..., 1]
+    return 0.5 * (x * np.roll(y, -1, axis=1) - np.roll(x, -1, axis=1) * y).sum(axis=1)

@@ -1,13 +1,19 @@
-"""Screening metrics of one element over an operating window, all exact (no sampling).
+"""Screening metrics of elements over an operating window, all exact (no sampling).
+
+The window is a band of the E–pH plane (``engine.window.Band``). Shearing E' = E − slope·pH turns it
+into a rectangle, and every domain polygon of every element is clipped by it at once
+(``engine.geometry.clip_stack``): first by its pH edges, then by its potential edges.
 
 - ``region_fractions``: the share of the window in each domain, by area, length or point.
 - ``instability``: max over the window of Φ_candidate − min Φ [eV per metal atom]; the
-  function is convex and piecewise linear, so its maximum lies at a vertex of the window.
+  function is convex and piecewise linear, so its maximum lies at a corner of the window.
 - ``max_dissolved``: the largest total dissolved-metal activity in equilibrium with the most
   stable solid; inside one solid's sub-domain its log is a log-sum-exp of linear functions
   (convex), so its maximum lies at a vertex of one of those sub-domains.
 - ``potential_margin``: how far the window can shift along E before meeting an unacceptable
-  domain, or (negative) how far it must shift to leave one.
+  domain, or (negative) how far it must shift to leave one. Clipped to the window's pH edges, a
+  domain spans E' from its lowest to its highest point; the window meets it exactly for the
+  shifts from lowest − high to highest − low.
 """
 
 from dataclasses import dataclass
@@ -16,8 +22,8 @@ import numpy as np
 
 from .constants import thermal_voltage
 from .diagram import Diagram
-from .domains import SEVERITY, lowest
-from .geometry import intersect, measure, vertical_overlap_shifts
+from .domains import SEVERITY, TIE
+from .geometry import clip_stack, stack_areas
 from .window import OperatingWindow
 
 
@@ -30,42 +36,169 @@ class Piece:
     fraction: float
 
 
-def region_pieces(diagram: Diagram, window: OperatingWindow) -> list[Piece]:
-    """Each species' share of the window, largest first; shares sum to 1.
+@dataclass(frozen=True)
+class Overlay:
+    """What the window meets on one element's diagram."""
 
-    When one species is the most stable at every vertex of the (convex) window it is the most
-    stable over all of it, since each Φ_i − Φ_j is linear.
-    """
-    planes = diagram.planes
-    holders = {lowest(planes, values) for values in planes.at_points(window.vertices)}
-    if len(holders) == 1:
-        species = planes.species[holders.pop()]
-        return [Piece(species.name, species.region, 1.0)]
-    sizes = []
-    for domain in _overlapping(diagram.domains, window.vertices):
-        size = measure(_common_part(domain, window), window.dimension)
-        if size > 0:
-            sizes.append((domain.species, size))
-    total = sum(size for _, size in sizes)
-    pieces = [Piece(s.name, s.region, size / total) for s, size in sizes if size / total > 1e-12]
-    return sorted(pieces, key=lambda p: -p.fraction)
+    pieces: tuple[Piece, ...]
+    """Each species' share of the window, largest first; shares sum to 1."""
+    reach: tuple[tuple[str, float, float], ...]
+    """(region, lowest, highest) vertical shift [V] at which the window meets each domain it can meet."""
+    dissolved: float | None
+    """Largest log10 total dissolved metal over the window; None without dissolved species."""
+    dissolved_at: tuple[float, float] | None
+    gaps: list[list[float]]
+    """Φ_i − min Φ [eV per metal atom] of each species i (rows) at each window corner (columns)."""
 
 
-def _common_part(domain, window: OperatingWindow) -> np.ndarray:
-    """The vertices of domain ∩ window: the domain clipped by the window's edges (an area), or the
-    window (a segment or point) clipped by the domain's."""
+def overlays(diagrams: list[Diagram], window: OperatingWindow) -> list[Overlay]:
+    """The overlay of ``window`` on each diagram, every polygon clipped in one pass."""
+    band = window.band
+    stacks = [d.outline_stack for d in diagrams]
+    width = max(s.shape[1] for s in stacks)
+    points = np.concatenate([_widen(s, width) for s in stacks])
+    points[..., 1] -= band.slope * points[..., 0]  # shear: the band becomes a rectangle
+    alive = np.ones(len(points), dtype=bool)
+    points, alive = clip_stack(points, alive, band.ph_low, -1.0, 0.0)
+    points, alive = clip_stack(points, alive, -band.ph_high, 1.0, 0.0)
+    reach_low = points[..., 1].min(axis=1) - band.high
+    reach_high = points[..., 1].max(axis=1) - band.low
+    reaches = alive.copy()
+    points, alive = clip_stack(points, alive, band.low, 0.0, -1.0)
+    points, alive = clip_stack(points, alive, -band.high, 0.0, 1.0)
+    sizes = _sizes(points, alive, window)
+    points[..., 1] += band.slope * points[..., 0]  # back to E vs SHE
+    table = _SpeciesTable(diagrams)
+    corner_values = table.values_at(np.arange(len(diagrams))[:, None], window.vertices[None, :, :])
+    holders = table.lowest(corner_values)
+    gaps = corner_values - corner_values.min(axis=2, keepdims=True)
+    solid_rows, solid_owner, solid_element, domain_rows = [], [], [], []
+    row = 0
+    for k, diagram in enumerate(diagrams):
+        count = len(diagram.domains)
+        domain_rows.append(range(row, row + count))
+        solids = diagram.solid_domains
+        solid_rows.extend(range(row + count, row + count + len(solids)))
+        solid_owner.extend(d.index for d in solids)
+        solid_element.extend([k] * len(solids))
+        row += count + len(solids)
+    dissolved = _largest_dissolved(table, np.array(solid_element), np.array(solid_owner), points[solid_rows],
+                                   alive[solid_rows])
+    results = []
+    for k, diagram in enumerate(diagrams):
+        rows, regions = domain_rows[k], diagram.planes.regions
+        results.append(Overlay(
+            pieces=_pieces(diagram, holders[k], sizes[rows.start:rows.stop], window),
+            reach=tuple((regions[d.index], float(reach_low[r]), float(reach_high[r]))
+                        for d, r in zip(diagram.domains, rows) if reaches[r]),
+            dissolved=dissolved[k][0], dissolved_at=dissolved[k][1],
+            gaps=gaps[k, :, :len(regions)].T.tolist()))
+    return results
+
+
+def _widen(points: np.ndarray, width: int) -> np.ndarray:
+    """A stack padded to ``width`` points per polygon by repeating each last point."""
+    missing = width - points.shape[1]
+    return points if not missing else np.concatenate([points, np.repeat(points[:, -1:], missing, axis=1)], axis=1)
+
+
+def _sizes(points: np.ndarray, alive: np.ndarray, window: OperatingWindow) -> np.ndarray:
+    """Each clipped polygon's share of the window by area (an area window), length along a segment
+    (taken along the axis the segment spans: a common factor) or presence (a point)."""
     if window.dimension == 2:
-        return intersect(domain.vertices, window.half_planes)
-    return intersect(window.vertices, domain.half_planes)
+        return np.where(alive, np.abs(stack_areas(points)), 0.0)
+    if window.dimension == 1:
+        axis = 1 if window.band.ph_low == window.band.ph_high else 0
+        return np.where(alive, np.ptp(points[..., axis], axis=1), 0.0)
+    return alive.astype(float)
 
 
-def _overlapping(domains, vertices: np.ndarray) -> list:
-    """The domains whose bounding box meets the window's."""
-    low_x, low_y = vertices.min(axis=0).tolist()
-    high_x, high_y = vertices.max(axis=0).tolist()
-    tolerance = 1e-12
-    return [d for d in domains if not (d.bounds[0] > high_x + tolerance or d.bounds[2] < low_x - tolerance
-                                       or d.bounds[1] > high_y + tolerance or d.bounds[3] < low_y - tolerance)]
+def _pieces(diagram: Diagram, holders: np.ndarray, sizes: np.ndarray, window: OperatingWindow) -> tuple[Piece, ...]:
+    """Each species' share from the clipped sizes of its domains.
+
+    When one species is the most stable at every corner of the (convex) window it is the most
+    stable over all of it, since each Φ_i − Φ_j is linear: then it holds the whole window, which
+    also settles a point or a segment lying on a boundary (:func:`engine.domains.stable_index_at`).
+    """
+    if window.dimension == 0 or len(set(holders.tolist())) == 1:
+        species = diagram.planes.species[int(holders[0])]
+        return (Piece(species.name, species.region, 1.0),)
+    total = float(sizes.sum())
+    pieces = [Piece(d.species.name, d.region, float(size) / total)
+              for d, size in zip(diagram.domains, sizes) if size / total > 1e-12]
+    return tuple(sorted(pieces, key=lambda p: -p.fraction))
+
+
+class _SpeciesTable:
+    """The planes of several diagrams side by side, padded to one width (padding never the lowest)."""
+
+    def __init__(self, diagrams: list[Diagram]):
+        width = max(len(d.planes.species) for d in diagrams)
+        shape = (len(diagrams), width)
+        self.offset, self.ph_slope, self.e_slope = np.full(shape, np.inf), np.zeros(shape), np.zeros(shape)
+        self.metal_atoms, self.severity = np.ones(shape), np.zeros(shape)
+        self.dissolved = np.zeros(shape, dtype=bool)
+        self.kt = np.array([thermal_voltage(d.planes.temperature_k) for d in diagrams])
+        self.log_activity = np.log([d.planes.activity for d in diagrams])
+        for k, d in enumerate(diagrams):
+            planes, size = d.planes, len(d.planes.species)
+            self.offset[k, :size], self.ph_slope[k, :size], self.e_slope[k, :size] = planes.offset, planes.ph_slope, planes.e_slope
+            self.metal_atoms[k, :size], self.dissolved[k, :size] = planes.metal_atoms, planes.dissolved
+            self.severity[k, :size] = [SEVERITY[region] for region in planes.regions]
+
+    def values_at(self, rows: np.ndarray, points: np.ndarray) -> np.ndarray:
+        """Φ of every species (last axis) of diagram ``rows`` at ``points`` [..., (pH, E)]."""
+        x, y = points[..., :1], points[..., 1:]
+        return self.offset[rows] + self.ph_slope[rows] * x + self.e_slope[rows] * y
+
+    def lowest(self, values: np.ndarray) -> np.ndarray:
+        """Index of the lowest Φ along the last axis, ties settled as :func:`engine.domains.stable_index_at` does."""
+        tied = values <= values.min(axis=-1, keepdims=True) + TIE
+        rank = self.severity[:, None, :] * values.shape[-1] - np.arange(values.shape[-1])
+        return np.where(tied, rank, -np.inf).argmax(axis=-1)
+
+
+def _largest_dissolved(table: _SpeciesTable, elements: np.ndarray, owners: np.ndarray, points: np.ndarray,
+                       alive: np.ndarray) -> list[tuple[float | None, tuple[float, float] | None]]:
+    """For each diagram of ``table``: (largest log10 Σ m_j·a_j over the points, where), or (None, None).
+
+    Row r of ``points`` holds the vertices of one solid's part of the window: the solid ``owners[r]``
+    of diagram ``elements[r]``. Equilibrium with the solid: Φ_j° + (RT/F)·ln a_j / m_j = Φ_solid, so
+    ln a_j = m_j·(Φ_solid − Φ_j°)/(RT/F), with Φ_j° the plane at unit activity.
+    """
+    rows = elements[:, None]
+    values = table.values_at(rows, points)
+    kt = table.kt[rows][..., None]
+    m = table.metal_atoms[rows]
+    standard = values - kt * table.log_activity[rows][..., None] / m
+    solid_values = np.take_along_axis(values, owners[:, None, None], axis=2)
+    with np.errstate(invalid="ignore", divide="ignore"):  # padding, solids and dead rows are masked out
+        exponents = np.where(table.dissolved[rows], np.log(m) + m * (solid_values - standard) / kt, -np.inf)
+        top = exponents.max(axis=2)
+        ok = np.isfinite(top) & alive[:, None]
+        safe_top = np.where(ok, top, 0.0)
+        total = np.log(np.exp(exponents - safe_top[..., None]).sum(axis=2))
+    logs = np.where(ok, (safe_top + total) / np.log(10.0), -np.inf)
+    answers: list[tuple[float | None, tuple[float, float] | None]] = [(None, None)] * len(table.kt)
+    if not len(elements):
+        return answers
+    starts = np.flatnonzero(np.r_[True, elements[1:] != elements[:-1]])  # rows come grouped by diagram
+    best = np.maximum.reduceat(logs.max(axis=1), starts)
+    counts = np.diff(np.r_[starts, len(elements)])
+    hits = np.flatnonzero((logs >= np.repeat(best - 1e-12, counts)[:, None]).ravel())
+    width = logs.shape[1]
+    firsts = hits[np.minimum(np.searchsorted(hits, starts * width), len(hits) - 1)] if len(hits) else []
+    flat_points = points.reshape(-1, 2)
+    for k, value, first in zip(elements[starts].tolist(), best.tolist(), list(firsts)):
+        if np.isfinite(value):
+            ph, e = flat_points[first].tolist()
+            answers[k] = (float(logs.ravel()[first]), (ph, e))
+    return answers
+
+
+def region_pieces(diagram: Diagram, window: OperatingWindow) -> list[Piece]:
+    """Each species' share of the window, largest first; shares sum to 1."""
+    return list(overlays([diagram], window)[0].pieces)
 
 
 def region_fractions(pieces: list[Piece]) -> dict[str, float]:
@@ -76,10 +209,10 @@ def region_fractions(pieces: list[Piece]) -> dict[str, float]:
     return {region: round(value, 12) for region, value in fractions.items()}
 
 
-def vertex_gaps(diagram: Diagram, window: OperatingWindow) -> list[list[float]]:
-    """Φ_i − min Φ [eV per metal atom] for each species i (rows) at each window corner (columns)."""
-    values = diagram.planes.at_points(window.vertices)
-    return (values - values.min(axis=1, keepdims=True)).T.tolist()
+def instability(diagram: Diagram, window: OperatingWindow, species_name: str) -> tuple[float, tuple[float, float]]:
+    """(max of Φ_candidate − min Φ over the window [eV per metal atom], the corner where it occurs)."""
+    gaps = overlays([diagram], window)[0].gaps
+    return largest_gap(gaps[diagram.planes.index_of[species_name]], window)
 
 
 def largest_gap(gaps: list[float], window: OperatingWindow) -> tuple[float, tuple[float, float]]:
@@ -89,52 +222,25 @@ def largest_gap(gaps: list[float], window: OperatingWindow) -> tuple[float, tupl
     return max(top, 0.0), window.corners[corner]
 
 
-def instability(diagram: Diagram, window: OperatingWindow, species_name: str) -> tuple[float, tuple[float, float]]:
-    """(max of Φ_candidate − min Φ over the window [eV per metal atom], the corner where it occurs)."""
-    return largest_gap(vertex_gaps(diagram, window)[diagram.planes.index_of[species_name]], window)
-
-
 def log10_dissolved_at(diagram: Diagram, solid: int, ph: float, potential: float) -> float:
     """log10 of Σ m_j·a_j over dissolved species j in equilibrium with solid ``solid`` at one point."""
-    return float(_log10_dissolved(diagram.planes, np.array([[ph, potential]]), np.array([solid]))[0])
-
-
-def _log10_dissolved(planes, points: np.ndarray, solids: np.ndarray) -> np.ndarray:
-    """log10 Σ m_j·a_j at each point, each in equilibrium with its own solid.
-
-    Equilibrium with the solid: Φ_j° + (RT/F)·ln a_j / m_j = Φ_solid, so
-    ln a_j = m_j·(Φ_solid − Φ_j°)/(RT/F), with Φ_j° the plane at unit activity.
-    """
-    kt = thermal_voltage(planes.temperature_k)
-    values = planes.at_points(points)
-    dissolved = planes.dissolved
-    m = planes.metal_atoms[dissolved]
-    standard = values[:, dissolved] - kt * np.log(planes.activity) / m
-    solid_values = values[np.arange(len(points)), solids][:, None]
-    exponents = np.log(m) + m * (solid_values - standard) / kt
-    top = exponents.max(axis=1, keepdims=True)
-    return (top[:, 0] + np.log(np.exp(exponents - top).sum(axis=1))) / np.log(10.0)
+    (value, _), = _largest_dissolved(_SpeciesTable([diagram]), np.array([0]), np.array([solid]),
+                                     np.array([[[ph, potential]]]), np.array([True]))
+    return value
 
 
 def max_dissolved(diagram: Diagram, window: OperatingWindow) -> tuple[float | None, tuple[float, float] | None]:
     """(largest log10 total dissolved metal [mol/kg, ≈ M] over the window, where it occurs); None without dissolved species."""
-    planes = diagram.planes
-    if not planes.dissolved.any():
-        return None, None
-    corners, solids = [], []
-    for domain in _overlapping(diagram.solid_domains, window.vertices):
-        part = _common_part(domain, window).tolist()
-        corners.extend(part)
-        solids.extend([domain.index] * len(part))
-    if not corners:
-        return None, None
-    values = _log10_dissolved(planes, np.array(corners), np.array(solids))
-    best = int(np.argmax(values >= values.max() - 1e-12))
-    ph, e = corners[best]
-    return float(values[best]), (float(ph), float(e))
+    overlay = overlays([diagram], window)[0]
+    return overlay.dissolved, overlay.dissolved_at
 
 
 def potential_margin(diagram: Diagram, window: OperatingWindow, accept: set[str]) -> tuple[float, bool]:
+    """See :func:`margin`: the margin of one diagram."""
+    return margin(overlays([diagram], window)[0], diagram, window, accept)
+
+
+def margin(overlay: Overlay, diagram: Diagram, window: OperatingWindow, accept: set[str]) -> tuple[float, bool]:
     """(signed margin [V], capped): shift along E to first meet an unacceptable domain (≥ 0),
     or minus the shift needed to leave the unacceptable ones (< 0).
 
@@ -143,14 +249,7 @@ def potential_margin(diagram: Diagram, window: OperatingWindow, accept: set[str]
     plot = diagram.window
     low_cap = plot.e_min - window.vertices[:, 1].min()
     high_cap = plot.e_max - window.vertices[:, 1].max()
-    intervals = []
-    for domain in diagram.domains:
-        if domain.region in accept:
-            continue
-        shifts = vertical_overlap_shifts(window.profile, domain.profile)
-        if shifts is not None:
-            intervals.append(shifts)
-    intervals.sort()
+    intervals = sorted((low, high) for region, low, high in overlay.reach if region not in accept)
     merged: list[list[float]] = []
     for start, end in intervals:
         if merged and start <= merged[-1][1] + 1e-9:

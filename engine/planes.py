@@ -36,9 +36,10 @@ class Planes:
         """Φ of every species at one point (pH, E vs SHE [V])."""
         return self.offset + self.ph_slope * ph + self.e_slope * potential
 
-    def at_points(self, points: np.ndarray) -> np.ndarray:
-        """Φ of every species (columns) at each point (rows) of a (k, 2) array [[pH, E vs SHE], …]."""
-        return self.offset + self.ph_slope * points[:, :1] + self.e_slope * points[:, 1:]
+    @cached_property
+    def regions(self) -> tuple[str, ...]:
+        """Each species' region: immunity, passivation or corrosion."""
+        return tuple(s.region for s in self.species)
 
     @cached_property
     def index_of(self) -> dict[str, int]:

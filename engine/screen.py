@@ -7,15 +7,16 @@ exact diagram (``engine.metrics``) and ranked by a rule shown to the user
 (``engine.ranking``).
 """
 
+from collections import OrderedDict
 from dataclasses import dataclass, field
-from functools import lru_cache
+from threading import Lock
 
 from .catalog import Catalog, default_catalog
 from .diagram import DEFAULT_ACTIVITY, Diagram, check_activity, check_temperature, diagram
 from .domains import Window
 from .errors import InputError
 from .materials import FAMILIES, Material
-from .metrics import largest_gap, max_dissolved, potential_margin, region_fractions, region_pieces, vertex_gaps
+from .metrics import largest_gap, margin, overlays, region_fractions
 from .ranking import DEFAULT_ORDER, RANK_KEYS, check_order, check_weights, rank, reason
 from .thermo import temperature_notes
 from .water import conditions_note
@@ -139,30 +140,67 @@ class ElementVerdict:
     diagram: Diagram
 
 
-def judge_element(catalog: Catalog, scenario: Scenario, element: str, window: OperatingWindow) -> ElementVerdict:
-    """Region shares, largest dissolved metal, potential margin and gas evolution for one element.
+class VerdictStore:
+    """Element verdicts by (catalog, element, activity, temperature, window, accepted regions), the least
+    recently used dropped first once ``size`` are kept; safe to share between threads.
 
     The same scenario comes back often (the page, its CSV, the saved shortlist, every opening of a
-    shared link), so verdicts are kept, the least recently used dropped first.
+    shared link), so a repeated screen reuses every verdict. The catalog is keyed by identity: a
+    ``--data`` overlay never shares verdicts with the built-in catalog.
     """
-    return _judged(catalog, element, scenario.activity, scenario.temperature, window, tuple(sorted(scenario.accept)))
+
+    def __init__(self, size: int):
+        self.size = size
+        self.computed = 0
+        self._kept: OrderedDict = OrderedDict()
+        self._lock = Lock()
+
+    def get(self, key: tuple) -> "ElementVerdict | None":
+        with self._lock:
+            verdict = self._kept.get(key)
+            if verdict is not None:
+                self._kept.move_to_end(key)
+            return verdict
+
+    def put(self, key: tuple, verdict: "ElementVerdict") -> None:
+        with self._lock:
+            self.computed += 1
+            self._kept[key] = verdict
+            while len(self._kept) > self.size:
+                self._kept.popitem(last=False)
+
+    def clear(self) -> None:
+        with self._lock:
+            self._kept.clear()
+            self.computed = 0
 
 
-VERDICTS_KEPT = 8192
-"""How many element verdicts :func:`judge_element` keeps: a few hundred whole-catalog scenarios."""
+VERDICTS = VerdictStore(size=8192)
+"""The engine's verdict store: 8192 verdicts are a few hundred whole-catalog scenarios."""
 
 
-@lru_cache(maxsize=VERDICTS_KEPT)
-def _judged(catalog: Catalog, element: str, activity: float, temperature: float, window: OperatingWindow,
-            accept: tuple[str, ...]) -> ElementVerdict:
-    result = diagram(element, activity, temperature, catalog=catalog)
-    pieces = tuple(region_pieces(result, window))
-    dissolved, dissolved_at = max_dissolved(result, window)
-    margin, capped = potential_margin(result, window, set(accept))
-    return ElementVerdict(pieces=pieces, fractions=region_fractions(pieces), dissolved=dissolved,
-                          dissolved_at=dissolved_at, margin=margin, margin_capped=capped,
-                          gas=tuple(gas_evolution(window, result.water)), gaps=vertex_gaps(result, window),
-                          diagram=result)
+def judge_elements(catalog: Catalog, scenario: Scenario, elements: list[str],
+                   window: OperatingWindow) -> dict[str, ElementVerdict]:
+    """Region shares, largest dissolved metal, potential margin and gas evolution for each element.
+
+    Verdicts already in :data:`VERDICTS` are reused; the others are computed together, every
+    domain of every element clipped by the window in one pass (``engine.metrics.overlays``).
+    """
+    accept = tuple(sorted(scenario.accept))
+    keys = {element: (catalog, element, scenario.activity, scenario.temperature, window, accept) for element in elements}
+    verdicts = {element: VERDICTS.get(key) for element, key in keys.items()}
+    missing = [element for element, verdict in verdicts.items() if verdict is None]
+    if missing:
+        diagrams = [diagram(element, scenario.activity, scenario.temperature, catalog=catalog) for element in missing]
+        gas = tuple(gas_evolution(window, diagrams[0].water))
+        for element, result, overlay in zip(missing, diagrams, overlays(diagrams, window)):
+            distance, capped = margin(overlay, result, window, set(accept))
+            verdicts[element] = ElementVerdict(
+                pieces=overlay.pieces, fractions=region_fractions(overlay.pieces), dissolved=overlay.dissolved,
+                dissolved_at=overlay.dissolved_at, margin=distance, margin_capped=capped, gas=gas,
+                gaps=overlay.gaps, diagram=result)
+            VERDICTS.put(keys[element], verdicts[element])
+    return verdicts
 
 
 def screen_material(catalog: Catalog, scenario: Scenario, material: Material, window: OperatingWindow,
@@ -206,8 +244,7 @@ def screen(scenario: Scenario, catalog: Catalog | None = None) -> dict:
     catalog = catalog or default_catalog()
     window = operating_window(catalog.scales, scenario.ph, scenario.potential, scenario.scale, scenario.temperature, Window())
     chosen = candidates(catalog, scenario)
-    verdicts = {element: judge_element(catalog, scenario, element, window)
-                for element in dict.fromkeys(m.element for m in chosen)}
+    verdicts = judge_elements(catalog, scenario, list(dict.fromkeys(m.element for m in chosen)), window)
     rows = [screen_material(catalog, scenario, m, window, verdicts[m.element]) for m in chosen]
     ranked = rank(rows, scenario.rank_by, scenario.weights or None)
     water = next(iter(verdicts.values())).diagram.water

@@ -15,7 +15,6 @@ from .constants import ZERO_CELSIUS
 from .diagram import check_number
 from .domains import Window
 from .errors import InputError
-from .geometry import VerticalProfile, edge_half_planes, vertical_profile
 from .scales import canonical_scale, to_she
 
 
@@ -38,14 +37,37 @@ class OperatingWindow:
         return np.array(self.corners, dtype=float)
 
     @cached_property
-    def half_planes(self) -> list[tuple[float, float, float]]:
-        """The window as half-planes a + b·pH + c·E ≤ 0 (an area only; empty for a segment or a point)."""
-        return edge_half_planes(self.vertices) if self.dimension == 2 else []
+    def band(self) -> "Band":
+        """The window as a band of the E–pH plane (see :class:`Band`)."""
+        corners = self.corners
+        if self.dimension == 2:
+            (p0, bottom_left), (p1, bottom_right), _, (_, top_left) = corners
+            slope = (bottom_right - bottom_left) / (p1 - p0)
+            return Band(p0, p1, slope, bottom_left - slope * p0, top_left - slope * p0)
+        if self.dimension == 1:
+            (x0, y0), (x1, y1) = corners
+            if abs(x1 - x0) > 1e-12:  # a potential held on a pH range: a band of zero height
+                slope = (y1 - y0) / (x1 - x0)
+                return Band(min(x0, x1), max(x0, x1), slope, y0 - slope * x0, y0 - slope * x0)
+            return Band(x0, x0, 0.0, min(y0, y1), max(y0, y1))  # one pH, a potential range
+        (x, y), = corners
+        return Band(x, x, 0.0, y, y)
 
-    @cached_property
-    def profile(self) -> VerticalProfile:
-        """The window's lower and upper edges as functions of pH."""
-        return vertical_profile(self.vertices)
+
+@dataclass(frozen=True)
+class Band:
+    """ph_low ≤ pH ≤ ph_high and low ≤ E − slope·pH ≤ high [V vs SHE].
+
+    Every operating window is such a band: its potential edges are parallel, of slope 0 on a fixed
+    reference and −RT ln10/F on the RHE. Shearing E' = E − slope·pH (which keeps areas and vertical
+    distances) turns it into the rectangle [ph_low, ph_high] × [low, high].
+    """
+
+    ph_low: float
+    ph_high: float
+    slope: float
+    low: float
+    high: float
 
 
 def check_range(values, field: str, low: float, high: float, unit: str = "") -> tuple[float, float]:

@@ -1,6 +1,7 @@
 """Convex-polygon clipping, area and containment."""
 
 import numpy as np
+import pytest
 from hypothesis import assume, example, given, settings
 from hypothesis import strategies as st
 
@@ -41,33 +42,33 @@ def test_contains():
     assert not contains(np.zeros((0, 2)), 0, 0)
 
 
-@settings(max_examples=150, deadline=None)
-@given(st.floats(-2, 2), st.floats(0, 1.5), st.floats(-1, 1), st.floats(0, 0.8), st.floats(-3, 3), st.floats(-3, 3))
-@example(x=1.0, width=1.0, y=0.0, height=0.0, a=0.0, b=0.0)  # a segment touching the square at one pH
-def test_vertical_overlap_shifts_match_a_scan(x, width, y, height, a, b):
-    """Shift the piece in small steps and test overlap with `intersect` (a sampled check of the exact interval)."""
-    from engine.geometry import edge_half_planes, intersect, vertical_overlap_shifts, vertical_profile
+def _random_convex(seed: int) -> np.ndarray:
+    """A convex polygon: a rectangle cut by a few random lines (test data only)."""
+    rng = np.random.default_rng(seed)
+    vertices, labels = rectangle(*sorted(rng.uniform(-3, 3, 2)), *sorted(rng.uniform(-3, 3, 2)))
+    for _ in range(int(rng.integers(0, 4))):
+        a, b, c = rng.uniform(-1, 1, 3)
+        cut, cut_labels = clip(vertices, labels, a, b, c, 0)
+        if len(cut) >= 3:
+            vertices, labels = cut, cut_labels
+    return vertices
 
-    polygon, labels = rectangle(-1, 1, -1, 1)
-    polygon, _ = clip(polygon, labels, -0.5, a * 0.3, b * 0.3 + 0.01, 0)  # a convex, possibly slanted shape
-    if len(polygon) < 3:
-        return
-    corners = [[x, y], [x + width, y], [x + width, y + height], [x, y + height]]
-    piece = np.unique(np.array(corners), axis=0) if (width == 0 or height == 0) else np.array(corners)
-    if width == 0 and height == 0:
-        piece = np.array([[x, y]])
-    elif width == 0 or height == 0:
-        piece = np.array([corners[0], corners[2]])
-    shifts = vertical_overlap_shifts(vertical_profile(piece), vertical_profile(polygon))
-    planes = edge_half_planes(polygon)
-    meets = [d for d in np.linspace(-6, 6, 1201) if len(intersect(piece + np.array([0.0, d]), planes))]
-    if shifts is None:
-        assert not meets
-        return
-    low, high = shifts
-    assert all(low - 1e-6 <= d <= high + 1e-6 for d in meets)
-    if high - low > 0.03:
-        assert meets and meets[0] <= low + 0.011 and meets[-1] >= high - 0.011
+
+@settings(max_examples=150, deadline=None)
+@given(st.lists(st.integers(0, 10_000), min_size=1, max_size=6), st.floats(-1, 1), st.floats(-1, 1), st.floats(-1, 1))
+@example(seeds=[1], a=0.0, b=1.0, c=0.0)  # a vertical line through the middle of the plane
+def test_clip_stack_matches_clip_one_polygon_at_a_time(seeds, a, b, c):
+    from engine.geometry import clip_stack, stack, stack_areas
+
+    polygons = [_random_convex(seed) for seed in seeds]
+    stacked, alive = clip_stack(stack(polygons, max(len(p) for p in polygons) + 2), np.ones(len(polygons), bool), a, b, c)
+    for row, polygon in enumerate(polygons):
+        one, _ = clip(polygon, np.zeros(len(polygon), dtype=int), a, b, c, 0)
+        assert bool(alive[row]) == (len(one) > 0)
+        if len(one):
+            assert stack_areas(stacked[row:row + 1])[0] == pytest.approx(area(one), abs=1e-9)
+            # the same points, each kept vertex or crossing once, the padding repeating them
+            assert {tuple(np.round(p, 9)) for p in stacked[row]} == {tuple(np.round(p, 9)) for p in one}
 
 
 def test_clip_down_to_a_single_point_keeps_it():

@@ -162,17 +162,18 @@ def test_bad_scenarios_name_their_field(kwargs, field, message):
 
 
 def test_a_repeated_scenario_reuses_element_verdicts_and_answers_the_same():
-    from engine.screen import _judged
+    from engine.screen import VERDICTS
 
     scenario = make_scenario(ph=[4.2, 5.3], potential=[-0.31, 0.44], role="cathode")
-    _judged.cache_clear()
+    VERDICTS.clear()
     fresh = screen(scenario)
-    computed = _judged.cache_info().misses
+    computed = VERDICTS.computed
+    assert computed == len(default_catalog().systems)
     again = screen(make_scenario(ph=[4.2, 5.3], potential=[-0.31, 0.44], role="cathode"))
-    assert _judged.cache_info().misses == computed  # every verdict came from the first screen
+    assert VERDICTS.computed == computed  # every verdict came from the first screen
     assert again["results"] == fresh["results"]
     other = screen(make_scenario(ph=[4.2, 5.3], potential=[-0.31, 0.44], role="anode"))  # other accepted regions
-    assert _judged.cache_info().misses == 2 * computed
+    assert VERDICTS.computed == 2 * computed
     assert other["results"] != fresh["results"]
 
 
