@@ -9,6 +9,7 @@ exact diagram (``engine.metrics``) and ranked by a rule shown to the user
 
 from collections import OrderedDict
 from dataclasses import dataclass, field
+from functools import cached_property
 from threading import Lock
 
 from .catalog import Catalog, default_catalog
@@ -138,13 +139,30 @@ class ElementVerdict:
     gas: tuple
     gaps: list
     diagram: Diagram
+    accept: tuple[str, ...]
+
+    @cached_property
+    def shared(self) -> dict:
+        """The row fields every material of this element shares, rounded for JSON once (each row copies them)."""
+        unacceptable = round(sum(v for k, v in self.fractions.items() if k not in self.accept), 12)
+        return {
+            "fractions": self.fractions,
+            "unacceptable_fraction": unacceptable,
+            "stable_phases": tuple({"species": p.species, "region": p.region, "fraction": round(p.fraction, 9)}
+                                   for p in self.pieces),
+            "log10_dissolved": None if self.dissolved is None else round(self.dissolved, 6),
+            "dissolved_at": self.dissolved_at,
+            "margin_mv": round(1000 * self.margin, 3), "margin_capped": self.margin_capped,
+            "verdict": "acceptable" if unacceptable <= 1e-9 else ("rejected" if unacceptable >= 1 - 1e-9 else "partly acceptable"),
+            "met": frozenset(p.species for p in self.pieces),
+        }
 
 
 class VerdictStore:
-    """Element verdicts by (catalog, element, activity, temperature, window, accepted regions), the least
-    recently used dropped first once ``size`` are kept; safe to share between threads.
+    """Element verdicts per question — (catalog, activity, temperature, window, accepted regions) — for
+    the ``size`` questions asked most recently; safe to share between threads.
 
-    The same scenario comes back often (the page, its CSV, the saved shortlist, every opening of a
+    The same question comes back often (the page, its CSV, the saved shortlist, every opening of a
     shared link), so a repeated screen reuses every verdict. The catalog is keyed by identity: a
     ``--data`` overlay never shares verdicts with the built-in catalog.
     """
@@ -152,31 +170,35 @@ class VerdictStore:
     def __init__(self, size: int):
         self.size = size
         self.computed = 0
-        self._kept: OrderedDict = OrderedDict()
+        self._questions: OrderedDict[tuple, dict[str, ElementVerdict]] = OrderedDict()
         self._lock = Lock()
 
-    def get(self, key: tuple) -> "ElementVerdict | None":
+    def known(self, question: tuple) -> dict[str, "ElementVerdict"]:
+        """The verdicts kept for ``question`` (a copy: element → verdict)."""
         with self._lock:
-            verdict = self._kept.get(key)
-            if verdict is not None:
-                self._kept.move_to_end(key)
-            return verdict
+            kept = self._questions.get(question)
+            if kept is None:
+                return {}
+            self._questions.move_to_end(question)
+            return dict(kept)
 
-    def put(self, key: tuple, verdict: "ElementVerdict") -> None:
+    def keep(self, question: tuple, verdicts: dict[str, "ElementVerdict"]) -> None:
+        """Add newly computed verdicts for ``question``, dropping the least recently asked questions beyond ``size``."""
         with self._lock:
-            self.computed += 1
-            self._kept[key] = verdict
-            while len(self._kept) > self.size:
-                self._kept.popitem(last=False)
+            self.computed += len(verdicts)
+            self._questions.setdefault(question, {}).update(verdicts)
+            self._questions.move_to_end(question)
+            while len(self._questions) > self.size:
+                self._questions.popitem(last=False)
 
     def clear(self) -> None:
         with self._lock:
-            self._kept.clear()
+            self._questions.clear()
             self.computed = 0
 
 
-VERDICTS = VerdictStore(size=8192)
-"""The engine's verdict store: 8192 verdicts are a few hundred whole-catalog scenarios."""
+VERDICTS = VerdictStore(size=512)
+"""The engine's verdict store: the last 512 questions, each with up to one verdict per element."""
 
 
 def judge_elements(catalog: Catalog, scenario: Scenario, elements: list[str],
@@ -187,46 +209,45 @@ def judge_elements(catalog: Catalog, scenario: Scenario, elements: list[str],
     domain of every element clipped by the window in one pass (``engine.metrics.overlays``).
     """
     accept = tuple(sorted(scenario.accept))
-    keys = {element: (catalog, element, scenario.activity, scenario.temperature, window, accept) for element in elements}
-    verdicts = {element: VERDICTS.get(key) for element, key in keys.items()}
-    missing = [element for element, verdict in verdicts.items() if verdict is None]
+    question = (catalog, scenario.activity, scenario.temperature, window, accept)
+    known = VERDICTS.known(question)
+    missing = [element for element in elements if element not in known]
     if missing:
         diagrams = [diagram(element, scenario.activity, scenario.temperature, catalog=catalog) for element in missing]
         gas = tuple(gas_evolution(window, diagrams[0].water))
+        computed = {}
         for element, result, overlay in zip(missing, diagrams, overlays(diagrams, window)):
             distance, capped = margin(overlay, result, window, set(accept))
-            verdicts[element] = ElementVerdict(
+            computed[element] = ElementVerdict(
                 pieces=overlay.pieces, fractions=region_fractions(overlay.pieces), dissolved=overlay.dissolved,
                 dissolved_at=overlay.dissolved_at, margin=distance, margin_capped=capped, gas=gas,
-                gaps=overlay.gaps, diagram=result)
-            VERDICTS.put(keys[element], verdicts[element])
-    return verdicts
+                gaps=overlay.gaps, diagram=result, accept=accept)
+        VERDICTS.keep(question, computed)
+        known.update(computed)
+    return {element: known[element] for element in elements}
 
 
 def screen_material(catalog: Catalog, scenario: Scenario, material: Material, window: OperatingWindow,
                     verdict: ElementVerdict) -> dict:
     """All metrics of one candidate (unranked), given its element's verdict."""
     energy, energy_at = largest_gap(verdict.gaps[verdict.diagram.planes.index_of[material.phase]], window)
-    fractions = verdict.fractions
-    met = {p.species for p in verdict.pieces}
-    hazards = [{"kind": "toxic", "species": h.species, "note": h.note} for h in material.hazards if h.species in met]
+    shared = verdict.shared
+    hazards = [{"kind": "toxic", "species": h.species, "note": h.note} for h in material.hazards if h.species in shared["met"]]
     row = {
         "material": material.id, "name": material.name, "element": material.element, "phase": material.phase,
         "family": material.family,
-        "fractions": dict(fractions),
-        "unacceptable_fraction": round(sum(v for k, v in fractions.items() if k not in scenario.accept), 12),
-        "stable_phases": [{"species": p.species, "region": p.region, "fraction": round(p.fraction, 9)}
-                          for p in verdict.pieces],
+        "fractions": dict(shared["fractions"]),
+        "unacceptable_fraction": shared["unacceptable_fraction"],
+        "stable_phases": [dict(phase) for phase in shared["stable_phases"]],
         "window_dimension": window.dimension,
         "instability_ev": round(energy, 9), "instability_at": list(energy_at),
-        "log10_dissolved": None if verdict.dissolved is None else round(verdict.dissolved, 6),
-        "dissolved_at": None if verdict.dissolved_at is None else list(verdict.dissolved_at),
-        "margin_mv": round(1000 * verdict.margin, 3), "margin_capped": verdict.margin_capped,
+        "log10_dissolved": shared["log10_dissolved"],
+        "dissolved_at": None if shared["dissolved_at"] is None else list(shared["dissolved_at"]),
+        "margin_mv": shared["margin_mv"], "margin_capped": shared["margin_capped"],
         "hazards": hazards + [dict(h) for h in verdict.gas],
         "price_usd_per_kg": material.price_usd_per_kg, "price_year": material.price_year,
+        "verdict": shared["verdict"],
     }
-    unacceptable = row["unacceptable_fraction"]
-    row["verdict"] = "acceptable" if unacceptable <= 1e-9 else ("rejected" if unacceptable >= 1 - 1e-9 else "partly acceptable")
     row["reason"] = reason(row)
     return row
 
