@@ -33,25 +33,18 @@ def clip(vertices: np.ndarray, labels: np.ndarray, a: float, b: float, c: float,
     >>> area(v)
     2.0
     """
-    if len(vertices) == 0:
+    count = len(vertices)
+    if count == 0:
         return vertices, labels
-    given = vertices.tolist()
-    points, kept_labels = _clip_points(given, labels.tolist(), a, b, c, label)
-    if points is given:
-        return vertices, labels
-    return np.array(points, dtype=float).reshape(-1, 2), np.array(kept_labels, dtype=int)
-
-
-def _clip_points(points: list, edge_labels: list, a: float, b: float, c: float, label: int) -> tuple[list, list]:
-    """:func:`clip` on plain lists of [x, y] points and edge labels (no arrays: this is the inner loop)."""
-    count = len(points)
+    points = vertices.tolist()
     values = [a + b * x + c * y for x, y in points]
     scale = EPS * max(1.0, abs(a), abs(b), abs(c))
     inside = [v <= scale for v in values]
     if all(inside):
-        return points, edge_labels
+        return vertices, labels
     if not any(inside):
-        return [], []
+        return vertices[:0], labels[:0]
+    edge_labels = labels.tolist()
     out_points, out_labels = [], []
     for k in range(count):
         j = (k + 1) % count
@@ -72,7 +65,7 @@ def _clip_points(points: list, edge_labels: list, a: float, b: float, c: float, 
             kept_labels.append(out_labels[k])
     if not kept_points:  # every point coincides: the piece has shrunk to a single point
         kept_points, kept_labels = out_points[:1], out_labels[:1]
-    return kept_points, kept_labels
+    return np.array(kept_points, dtype=float).reshape(-1, 2), np.array(kept_labels, dtype=int)
 
 
 def _crossing(p: list, q: list, value_p: float, value_q: float) -> list:

@@ -154,8 +154,12 @@ class ElementVerdict:
             "dissolved_at": self.dissolved_at,
             "margin_mv": round(1000 * self.margin, 3), "margin_capped": self.margin_capped,
             "verdict": "acceptable" if unacceptable <= 1e-9 else ("rejected" if unacceptable >= 1 - 1e-9 else "partly acceptable"),
-            "met": frozenset(p.species for p in self.pieces),
         }
+
+    @cached_property
+    def met(self) -> frozenset[str]:
+        """The species the window meets: only their hazards are flagged."""
+        return frozenset(p.species for p in self.pieces)
 
 
 class VerdictStore:
@@ -232,7 +236,7 @@ def screen_material(catalog: Catalog, scenario: Scenario, material: Material, wi
     """All metrics of one candidate (unranked), given its element's verdict."""
     energy, energy_at = largest_gap(verdict.gaps[verdict.diagram.planes.index_of[material.phase]], window)
     shared = verdict.shared
-    hazards = [{"kind": "toxic", "species": h.species, "note": h.note} for h in material.hazards if h.species in shared["met"]]
+    hazards = [{"kind": "toxic", "species": h.species, "note": h.note} for h in material.hazards if h.species in verdict.met]
     row = {
         "material": material.id, "name": material.name, "element": material.element, "phase": material.phase,
         "family": material.family,

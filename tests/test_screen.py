@@ -188,5 +188,6 @@ def test_an_overlay_catalog_never_shares_verdicts_with_the_built_in_one(tmp_path
     built_in = screen(make_scenario(**scenario))["results"][0]
     overlay = load_catalog(overlay=tmp_path)
     changed = screen(make_scenario(**scenario, catalog=overlay), overlay)["results"][0]
-    assert built_in["fractions"]["corrosion"] == 1.0  # Zn/Zn2+ at 10^-6 lies at -0.94 V vs SHE
+    # Zn/Zn2+ at 10^-6 lies at -0.762 - 0.177 = -0.94 V vs SHE (E° from Bard, Parsons & Jordan 1985; Nernst)
+    assert built_in["fractions"]["corrosion"] == 1.0
     assert changed["fractions"]["immunity"] == 1.0  # now at -50/(2F) - 0.177 = -0.44 V
