@@ -7,7 +7,7 @@ STAMP_TEST := $(VENV)/.installed-test
 HOST ?= 127.0.0.1
 PORT ?= 8000
 
-.PHONY: serve test bench browser clean
+.PHONY: serve test test-deep bench browser clean
 
 $(BIN)/python:
 	$(PYTHON) -m venv $(VENV)
@@ -29,6 +29,10 @@ browser:
 
 test: $(STAMP_TEST) browser
 	$(BIN)/python -m pytest
+
+# random property-test examples, many more of them (the derandomised "ci" profile is the default)
+test-deep: $(STAMP_TEST) browser
+	HYPOTHESIS_PROFILE=deep $(BIN)/python -m pytest
 
 bench: $(STAMP_TEST)
 	$(BIN)/python bench/run.py

@@ -14,6 +14,9 @@ import numpy as np
 EPS = 1e-12
 """Tolerance on a half-plane's value below which a vertex counts as on the line."""
 
+SLIVER = 1e-12
+"""Relative area below which a clipped piece of a polygon counts as empty (a line or a point, not an area)."""
+
 WINDOW_EDGE = -1
 """Label of an edge that belongs to the plot or operating window."""
 
@@ -57,15 +60,46 @@ def clip(vertices: np.ndarray, labels: np.ndarray, a: float, b: float, c: float,
         elif inside[j]:
             out_points.append(_crossing(points[k], points[j], values[k], values[j]))
             out_labels.append(edge_labels[k])
-    kept_points, kept_labels = [], []
-    for k, point in enumerate(out_points):  # drop zero-length edges left where the line met a vertex
-        following = out_points[(k + 1) % len(out_points)]
-        if len(out_points) == 1 or abs(following[0] - point[0]) + abs(following[1] - point[1]) > 1e-12:
-            kept_points.append(point)
-            kept_labels.append(out_labels[k])
-    if not kept_points:  # every point coincides: the piece has shrunk to a single point
-        kept_points, kept_labels = out_points[:1], out_labels[:1]
+    size = max(float(np.ptp(vertices[:, 0])), float(np.ptp(vertices[:, 1]))) or max(1.0, float(np.abs(vertices).max()))
+    kept_points, kept_labels = _tidy(out_points, out_labels, size)
+    whole = abs(_shoelace(points))
+    if whole > 0 and (len(kept_points) < 3 or abs(_shoelace(kept_points)) <= SLIVER * whole):
+        return vertices[:0], labels[:0]  # a line or a sliver cut from a real polygon: no area, so empty
     return np.array(kept_points, dtype=float).reshape(-1, 2), np.array(kept_labels, dtype=int)
+
+
+def _tidy(points: list, labels: list, size: float) -> tuple[list, list]:
+    """Drop repeated vertices (closer than EPS·size) and straight-through vertices between edges of one label.
+
+    A piece that shrinks to one point keeps that point (a point window stays a point).
+    """
+    points, labels = list(points), list(labels)
+    changed = True
+    while changed and len(points) > 1:
+        changed = False
+        for k in range(len(points)):
+            following = points[(k + 1) % len(points)]
+            if abs(following[0] - points[k][0]) + abs(following[1] - points[k][1]) <= EPS * size:
+                del points[(k + 1) % len(points)]  # the edge k→k+1 has no length; edge k+1 takes over
+                del labels[k]
+                changed = True
+                break
+            if len(points) >= 3:
+                before = points[k - 1]
+                turn = ((points[k][0] - before[0]) * (following[1] - points[k][1])
+                        - (points[k][1] - before[1]) * (following[0] - points[k][0]))
+                if labels[k - 1] == labels[k] and abs(turn) <= EPS * size * size:
+                    del points[k], labels[k]
+                    changed = True
+                    break
+    return points, labels
+
+
+def _shoelace(points: list) -> float:
+    """Signed area of a list of (x, y) vertices."""
+    count = len(points)
+    return 0.5 * sum(points[k][0] * points[(k + 1) % count][1] - points[(k + 1) % count][0] * points[k][1]
+                     for k in range(count))
 
 
 def _crossing(p: list, q: list, value_p: float, value_q: float) -> list:

@@ -13,6 +13,13 @@ import urllib.request
 from pathlib import Path
 
 import pytest
+from hypothesis import settings
+
+settings.register_profile("ci", derandomize=True, database=None, print_blob=True)
+"""Same examples on every run, so CI never fails at random (``make test``)."""
+settings.register_profile("deep", max_examples=2000, derandomize=False, print_blob=True)
+"""Fresh random examples, ten times more of them (``make test-deep``)."""
+settings.load_profile(os.environ.get("HYPOTHESIS_PROFILE", "ci"))
 
 ROOT = Path(__file__).resolve().parent.parent
 CHROMIUM = "/usr/bin/chromium"

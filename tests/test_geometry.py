@@ -23,6 +23,7 @@ def test_clip_outside_gives_empty_polygon():
 
 @settings(max_examples=200, deadline=None)
 @given(st.floats(-5, 5), st.floats(-3, 3), st.floats(-3, 3))
+@example(1e-05, 1e-05, 8.3e-15)  # a line along the rectangle's left edge: once gave a zero-area polygon
 def test_two_complementary_clips_tile_the_rectangle(a, b, c):
     assume(max(abs(a), abs(b), abs(c)) > 1e-6)
     vertices, labels = rectangle(-1, 2, -1, 1)
@@ -32,6 +33,34 @@ def test_two_complementary_clips_tile_the_rectangle(a, b, c):
     for polygon in (kept, other):
         if len(polygon) >= 3:
             assert is_convex(polygon)
+
+
+def test_clip_along_an_edge_leaves_nothing_or_the_whole():
+    vertices, labels = rectangle(-1, 2, -1, 1)
+    kept, _ = clip(vertices, labels, 1e-05, 1e-05, 8.3e-15, 0)  # keep x <= -1: only the left edge
+    other, _ = clip(vertices, labels, -1e-05, -1e-05, -8.3e-15, 1)
+    assert len(kept) == 0
+    assert area(other) == pytest.approx(area(vertices))
+
+
+def test_a_sliver_below_the_relative_area_is_empty_but_a_small_window_is_kept():
+    vertices, labels = rectangle(0, 1, 0, 1)
+    sliver, _ = clip(vertices, labels, -1e-14, 1.0, 0.0, 0)  # keep x <= 1e-14
+    assert len(sliver) == 0
+    tiny, tiny_labels = rectangle(7.0, 7.0 + 1e-6, 0.5, 0.5 + 1e-6)  # a window of area 1e-12
+    half, _ = clip(tiny, tiny_labels, -(7.0 + 5e-7), 1.0, 0.0, 0)  # keep its left half
+    assert area(half) == pytest.approx(5e-13, rel=1e-6)
+    assert is_convex(half)
+
+
+def test_clip_drops_repeated_and_straight_through_vertices():
+    vertices = np.array([[0, 0], [1, 0], [1, 0], [2, 0], [2, 1], [0, 1]], dtype=float)
+    labels = np.full(6, -1)
+    kept, kept_labels = clip(vertices, labels, -3.0, 1.0, 0.0, 0)  # cuts nothing, so nothing is tidied
+    assert len(kept) == 6
+    kept, kept_labels = clip(vertices, labels, -1.5, 1.0, 0.0, 0)  # keep x <= 1.5
+    assert kept.tolist() == [[0, 0], [1.5, 0], [1.5, 1], [0, 1]]
+    assert kept_labels.tolist() == [-1, 0, -1, -1]
 
 
 def test_contains():
