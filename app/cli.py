@@ -11,12 +11,12 @@ import math
 import sys
 from pathlib import Path
 
-from engine.catalog import Catalog, default_catalog, load_catalog
-from engine.diagram import DEFAULT_ACTIVITY, Window, check_point, check_temperature, diagram
-from engine.errors import ElectrosieveError, InputError
-from engine.scales import canonical_scale, convert, needs_ph, to_she
+from electrosieve.engine.catalog import Catalog, default_catalog, load_catalog
+from electrosieve.engine.diagram import DEFAULT_ACTIVITY, Window, check_point, check_temperature, diagram
+from electrosieve.engine.errors import ElectrosieveError, InputError
+from electrosieve.engine.scales import canonical_scale, convert, needs_ph, to_she
 
-from engine.screen import make_scenario, screen
+from electrosieve.engine.screen import make_scenario, screen
 
 from . import payloads
 

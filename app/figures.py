@@ -108,8 +108,8 @@ def axis_offsets(scales: dict, scale_id: str, temperature_c: float) -> tuple[flo
     A fixed reference sits at E_X vs SHE (``engine.scales.scale_offset``); the RHE moves with pH by the
     Nernst slope (``engine.constants.nernst_slope``), so E_RHE = E_SHE + slope·pH.
     """
-    from engine.constants import ZERO_CELSIUS, nernst_slope
-    from engine.scales import needs_ph, scale_offset
+    from electrosieve.engine.constants import ZERO_CELSIUS, nernst_slope
+    from electrosieve.engine.scales import needs_ph, scale_offset
 
     temperature_k = temperature_c + ZERO_CELSIUS
     offset = scale_offset(scales, scale_id, temperature_k)

@@ -16,7 +16,7 @@ from fastapi.responses import FileResponse, Response
 from fastapi.staticfiles import StaticFiles
 from starlette.exceptions import HTTPException as StarletteHTTPException
 
-from engine.catalog import Catalog
+from electrosieve.engine.catalog import Catalog
 
 from .routes import api, compare, docs, health, materials, screen, shortlists
 from .routes.common import AppState
@@ -28,8 +28,8 @@ PLOTLY_JS = Path(plotly.__file__).resolve().parent / "package_data" / "plotly.mi
 
 
 def static_dir() -> Path:
-    """The ``static/`` directory (installed as the package ``electrosieve_static``)."""
-    return Path(str(resources.files("electrosieve_static")))
+    """The ``static/`` directory (installed as the package ``electrosieve.static``)."""
+    return Path(str(resources.files("electrosieve.static")))
 
 
 def create_app(settings: Settings | None = None, catalog: Catalog | None = None) -> FastAPI:

@@ -16,11 +16,11 @@ from typing import Annotated, Literal
 from pydantic import AfterValidator, BaseModel, ConfigDict, Field, StringConstraints, ValidationError, WithJsonSchema
 from pydantic_core import PydanticCustomError
 
-from engine.diagram import ACTIVITY_RANGE, DEFAULT_ACTIVITY, TEMPERATURE_RANGE_C
-from engine.domains import Window
-from engine.materials import FAMILIES
-from engine.ranking import DEFAULT_ORDER, RANK_KEYS
-from engine.screen import REGIONS, ROLES
+from electrosieve.engine.diagram import ACTIVITY_RANGE, DEFAULT_ACTIVITY, TEMPERATURE_RANGE_C
+from electrosieve.engine.domains import Window
+from electrosieve.engine.materials import FAMILIES
+from electrosieve.engine.ranking import DEFAULT_ORDER, RANK_KEYS
+from electrosieve.engine.screen import REGIONS, ROLES
 
 from .storage import NOTE_MAX, TITLE_MAX
 

@@ -1,10 +1,10 @@
 """JSON-ready payloads built from engine results: one shape shared by the CLI, the API and the pages."""
 
-from engine.catalog import Catalog
-from engine.diagram import Diagram
-from engine.species import Species
-from engine.thermo import temperature_notes
-from engine.water import conditions_note
+from electrosieve.engine.catalog import Catalog
+from electrosieve.engine.diagram import Diagram
+from electrosieve.engine.species import Species
+from electrosieve.engine.thermo import temperature_notes
+from electrosieve.engine.water import conditions_note
 
 from .cautions import CAUTIONS
 

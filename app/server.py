@@ -3,7 +3,7 @@
 import os
 import sys
 
-from engine.errors import InputError
+from electrosieve.engine.errors import InputError
 
 from .settings import Settings
 from .storage import open_storage
@@ -29,5 +29,5 @@ def serve(host: str = "127.0.0.1", port: int = 8000, workers: int = 1, data_dir:
     where = settings.database_url and "DATABASE_URL" or str(settings.data_dir.resolve())
     print(f"electrosieve: serving on http://{shown_host}:{port}/ (shortlists in {where}; "
           f"{workers} worker{'s' if workers != 1 else ''}). Press Ctrl+C to stop.", file=sys.stderr, flush=True)
-    uvicorn.run("app.main:app", host=host, port=port, workers=workers, log_level="warning",
+    uvicorn.run("electrosieve.app.main:app", host=host, port=port, workers=workers, log_level="warning",
                 proxy_headers=True, server_header=False)

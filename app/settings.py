@@ -14,7 +14,7 @@ import os
 from dataclasses import dataclass
 from pathlib import Path
 
-from engine.errors import ElectrosieveError
+from electrosieve.engine.errors import ElectrosieveError
 
 DEFAULT_DATA_DIR = "var"
 DEFAULT_MAX_BODY_BYTES = 64 * 1024

@@ -8,12 +8,12 @@ import random
 import statistics
 import time
 
-from engine.catalog import default_catalog
-from engine.diagram import _cached_diagram
-from engine.domains import Window, boundaries, stability_domains
-from engine.planes import build_planes
-from engine.screen import VERDICTS, make_scenario, screen
-from engine.species import Species
+from electrosieve.engine.catalog import default_catalog
+from electrosieve.engine.diagram import _cached_diagram
+from electrosieve.engine.domains import Window, boundaries, stability_domains
+from electrosieve.engine.planes import build_planes
+from electrosieve.engine.screen import VERDICTS, make_scenario, screen
+from electrosieve.engine.species import Species
 
 WINDOW = Window()
 

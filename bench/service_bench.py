@@ -42,7 +42,7 @@ def free_port() -> int:
 def start_server(port: int, data_dir: str) -> subprocess.Popen:
     """uvicorn in a subprocess; returns once /healthz answers."""
     env = {**os.environ, "ELECTROSIEVE_DATA_DIR": data_dir}
-    process = subprocess.Popen([sys.executable, "-m", "uvicorn", "app.main:app", "--host", "127.0.0.1",
+    process = subprocess.Popen([sys.executable, "-m", "uvicorn", "electrosieve.app.main:app", "--host", "127.0.0.1",
                                 "--port", str(port), "--log-level", "warning"], env=env,
                                stdout=subprocess.DEVNULL, stderr=subprocess.DEVNULL)
     deadline = time.time() + 30

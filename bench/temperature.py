@@ -15,10 +15,10 @@ from pathlib import Path
 
 sys.path.insert(0, str(Path(__file__).resolve().parents[1]))
 
-from engine import thermo  # noqa: E402
-from engine.catalog import default_catalog  # noqa: E402
-from engine.diagram import _cached_diagram  # noqa: E402
-from engine.domains import Window  # noqa: E402
+from electrosieve.engine import thermo  # noqa: E402
+from electrosieve.engine.catalog import default_catalog  # noqa: E402
+from electrosieve.engine.diagram import _cached_diagram  # noqa: E402
+from electrosieve.engine.domains import Window  # noqa: E402
 
 ELEMENTS = ("Zn", "Fe", "Cu", "Ni", "Pt")
 REPEATS = 15

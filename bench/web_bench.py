@@ -35,8 +35,8 @@ def screen_api_ms(repeats: int = 40) -> dict:
     warnings.filterwarnings("ignore", message="Using `httpx`")
     from fastapi.testclient import TestClient
 
-    from app.main import create_app
-    from app.settings import Settings
+    from electrosieve.app.main import create_app
+    from electrosieve.app.settings import Settings
 
     with tempfile.TemporaryDirectory() as data_dir, TestClient(create_app(Settings(data_dir=Path(data_dir)))) as client:
         first = client.post("/api/v1/screen", json=SCREEN_BODY)
@@ -68,7 +68,7 @@ def screen_page_interactive_ms(loads: int = 5) -> dict:
     port = _free_port()
     with tempfile.TemporaryDirectory() as data_dir:
         env = {**os.environ, "ELECTROSIEVE_DATA_DIR": data_dir}
-        server = subprocess.Popen([sys.executable, "-m", "uvicorn", "app.main:app", "--host", "127.0.0.1",
+        server = subprocess.Popen([sys.executable, "-m", "uvicorn", "electrosieve.app.main:app", "--host", "127.0.0.1",
                                    "--port", str(port), "--log-level", "warning"], cwd=ROOT, env=env,
                                   stdout=subprocess.DEVNULL, stderr=subprocess.DEVNULL)
         try:

@@ -1,1 +1,1 @@
-"""The built-in catalog data (installed as the package ``electrosieve_data``)."""
+"""The built-in catalog data (installed as the package ``electrosieve.data``)."""

@@ -1,6 +1,6 @@
 """Load and validate the data files: species, sources, reference scales, materials.
 
-The built-in catalog lives in ``data/`` (installed as the ``electrosieve_data``
+The built-in catalog lives in ``data/`` (installed as the ``electrosieve.data``
 package); a user's own directory of the same layout may be laid over it.
 Every problem is reported as a :class:`CatalogError` naming the file, the
 entry and the field.
@@ -162,7 +162,7 @@ def _load_table(path: Path, model: type[BaseModel], entry_word: str) -> dict:
 
 def builtin_data_dir() -> Path:
     """The built-in ``data/`` directory (from the checkout or the installed wheel)."""
-    return Path(str(resources.files("electrosieve_data")))
+    return Path(str(resources.files("electrosieve.data")))
 
 
 def load_catalog(data_dir: Path | None = None, overlay: Path | None = None) -> Catalog:

@@ -54,7 +54,7 @@ def build_planes(species: tuple[Species, ...], water_gibbs: float, activity: flo
     ``water_gibbs`` is ΔGf°(H2O, l) [kJ/mol] at ``temperature_k`` [K]; ``catalog`` supplies the
     element and water data that temperature corrections need (the built-in catalog by default).
 
-    >>> from engine.species import Species
+    >>> from electrosieve.engine.species import Species
     >>> zinc = Species.create("Zn", formula="Zn", charge=0, phase="solid", dgf=0.0, source="x")
     >>> ion = Species.create("Zn", formula="Zn", charge=2, phase="aqueous", dgf=-147.06, source="x")
     >>> p = build_planes((zinc, ion), -237.129, 1.0)

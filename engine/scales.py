@@ -43,7 +43,7 @@ def to_she(scales: dict, value: float, scale_id: str, ph: float | None = None,
            temperature_k: float = T_STANDARD) -> float:
     """A potential [V vs ``scale_id``] expressed vs SHE [V].
 
-    >>> from engine.catalog import default_catalog
+    >>> from electrosieve.engine.catalog import default_catalog
     >>> round(to_she(default_catalog().scales, 0.0, "RHE", ph=14), 4)
     -0.8282
     """
@@ -65,7 +65,7 @@ def convert(scales: dict, value: float, source: str, target: str, ph: float | No
             temperature_k: float = T_STANDARD) -> float:
     """A potential measured vs ``source`` expressed vs ``target`` [V].
 
-    >>> from engine.catalog import default_catalog
+    >>> from electrosieve.engine.catalog import default_catalog
     >>> round(convert(default_catalog().scales, 0.0, "SCE", "SHE"), 4)
     0.2412
     """

@@ -292,7 +292,7 @@ def _temperature_data(species: Species, catalog) -> TemperatureData:
 def temperature_data(species: Species, catalog=None) -> TemperatureData:
     """ΔfS°, ΔfCp and the approximations used for ``species`` (data of ``catalog``, built-in by default).
 
-    >>> from engine.catalog import default_catalog
+    >>> from electrosieve.engine.catalog import default_catalog
     >>> round(temperature_data(default_catalog().water["H2O"]).entropy, 2)   # ΔfS°(H2O, l) [J/(mol K)]
     -163.34
     """
@@ -304,7 +304,7 @@ def temperature_data(species: Species, catalog=None) -> TemperatureData:
 def temperature_method(species: Species, catalog=None) -> str:
     """In words, how ``species``' ΔfG(T) is obtained: tabulated data, or which approximation.
 
-    >>> from engine.catalog import default_catalog
+    >>> from electrosieve.engine.catalog import default_catalog
     >>> zinc = default_catalog().system("Zn")
     >>> temperature_method(zinc.find("Zn^2+"))
     'S° and Cp° tabulated'
@@ -345,7 +345,7 @@ def formation_gibbs(species: Species, temperature_k: float = T_STANDARD, catalog
     at T0 exactly the tabulated ΔfG°. Element data come from ``catalog``
     (built-in by default). See the module docstring for the conventions.
 
-    >>> from engine.catalog import default_catalog
+    >>> from electrosieve.engine.catalog import default_catalog
     >>> water = default_catalog().water["H2O"]
     >>> formation_gibbs(water), round(formation_gibbs(water, 353.15), 3)
     (-237.129, -228.297)
@@ -393,7 +393,7 @@ def formation_entropy_from_s(species: Species, catalog) -> float:
 def formation_enthalpy(species: Species, catalog=None) -> float:
     """ΔfH° [kJ/mol] at 298.15 K: tabulated, or ΔfG° + T0·ΔfS° when missing.
 
-    >>> from engine.catalog import default_catalog
+    >>> from electrosieve.engine.catalog import default_catalog
     >>> round(formation_enthalpy(default_catalog().water["H2O"]), 2)
     -285.83
     """

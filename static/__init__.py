@@ -1,1 +1,1 @@
-"""Static files of the web pages (installed as the package ``electrosieve_static``)."""
+"""Static files of the web pages (installed as the package ``electrosieve.static``)."""

@@ -63,7 +63,7 @@ class Server:
         self.data_dir.mkdir(parents=True, exist_ok=True)
         self._log_file = open(self.log, "wb")
         self.process = subprocess.Popen(
-            [sys.executable, "-m", "uvicorn", "app.main:app", "--host", "127.0.0.1", "--port", str(self.port),
+            [sys.executable, "-m", "uvicorn", "electrosieve.app.main:app", "--host", "127.0.0.1", "--port", str(self.port),
              "--log-level", "warning"],
             cwd=ROOT, env=environment, stdout=self._log_file, stderr=subprocess.STDOUT)
         self._wait_until_up()
@@ -121,9 +121,9 @@ def client(tmp_path):
     """An in-process client of the app with the built-in catalog and shortlists in a temporary directory."""
     from fastapi.testclient import TestClient
 
-    from app.main import create_app
-    from app.settings import Settings
-    from engine.catalog import default_catalog
+    from electrosieve.app.main import create_app
+    from electrosieve.app.settings import Settings
+    from electrosieve.engine.catalog import default_catalog
 
     app = create_app(Settings(data_dir=tmp_path), catalog=default_catalog())
     with TestClient(app, raise_server_exceptions=False) as test_client:

@@ -6,14 +6,14 @@ import re
 import pytest
 from fastapi.testclient import TestClient
 
-from app import payloads
-from app.cautions import CAUTIONS
-from app.payloads import screen_payload
-from app.main import create_app
-from app.settings import Settings
-from engine.catalog import default_catalog
-from engine.diagram import diagram
-from engine.screen import make_scenario, rule_text, screen
+from electrosieve.app import payloads
+from electrosieve.app.cautions import CAUTIONS
+from electrosieve.app.payloads import screen_payload
+from electrosieve.app.main import create_app
+from electrosieve.app.settings import Settings
+from electrosieve.engine.catalog import default_catalog
+from electrosieve.engine.diagram import diagram
+from electrosieve.engine.screen import make_scenario, rule_text, screen
 from tests.utils.factories import catalog_with, metal
 
 CATALOG = default_catalog()

@@ -13,11 +13,11 @@ from dataclasses import dataclass, field as dataclass_field
 import pytest
 from fastapi.testclient import TestClient
 
-from app.cli import EXIT_BAD_INPUT, main
-from app.main import create_app
-from app.settings import DEFAULT_MAX_BODY_BYTES, Settings
-from app.storage import NOTE_MAX, TITLE_MAX
-from engine.catalog import default_catalog
+from electrosieve.app.cli import EXIT_BAD_INPUT, main
+from electrosieve.app.main import create_app
+from electrosieve.app.settings import DEFAULT_MAX_BODY_BYTES, Settings
+from electrosieve.app.storage import NOTE_MAX, TITLE_MAX
+from electrosieve.engine.catalog import default_catalog
 
 CATALOG = default_catalog()
 CAP = DEFAULT_MAX_BODY_BYTES

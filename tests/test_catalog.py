@@ -5,8 +5,8 @@ from pathlib import Path
 
 import pytest
 
-from engine.catalog import builtin_data_dir, default_catalog, load_catalog
-from engine.errors import CatalogError
+from electrosieve.engine.catalog import builtin_data_dir, default_catalog, load_catalog
+from electrosieve.engine.errors import CatalogError
 
 ZINC_ROW = """
 [[species]]

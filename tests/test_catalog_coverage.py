@@ -5,7 +5,7 @@ import tomllib
 
 import pytest
 
-from engine.catalog import builtin_data_dir, default_catalog
+from electrosieve.engine.catalog import builtin_data_dir, default_catalog
 from tests.utils.checksums import SPECIES_CHECKSUMS
 
 GROUP_MODULES = ("tests.test_species_core", "tests.test_species_noble", "tests.test_species_transition", "tests.test_species_post_transition")

@@ -6,7 +6,7 @@ import sys
 
 import pytest
 
-from app.cli import main
+from electrosieve.app.cli import main
 
 
 def run(capsys, *argv):
@@ -104,7 +104,7 @@ def test_malformed_user_data_file(capsys, tmp_path):
 
 
 def test_console_script_runs_without_traceback():
-    result = subprocess.run([sys.executable, "-m", "app.cli", "point", "Nope", "--ph", "1", "--potential", "0"],
+    result = subprocess.run([sys.executable, "-m", "electrosieve.app.cli", "point", "Nope", "--ph", "1", "--potential", "0"],
                             capture_output=True, text=True, timeout=60)
     assert result.returncode == 2
     assert "unknown element" in result.stderr and "Traceback" not in result.stderr
@@ -125,7 +125,7 @@ def test_screen_csv(capsys):
     assert code == 0, err
     lines = out.strip().splitlines()
     assert lines[0].startswith("rank,material,")
-    assert len(lines) == 1 + len([m for m in __import__("engine.catalog").catalog.default_catalog().materials.values()
+    assert len(lines) == 1 + len([m for m in __import__("electrosieve.engine.catalog").engine.catalog.default_catalog().materials.values()
                                   if m.family == "noble"])
 
 
@@ -166,7 +166,7 @@ def test_screen_bad_input(capsys, argv, message):
 
 def test_point_on_a_boundary_is_the_less_noble_side(capsys):
     # Zn/Zn2+ at 10^-6: E = -0.7621 + 0.02958 log(1e-6) = -0.9396 V (Nernst; E° from the catalog, -0.762 V in Bard 1985).
-    from engine.diagram import diagram
+    from electrosieve.engine.diagram import diagram
 
     line = next(b for b in diagram("Zn").boundaries if {b.first.name, b.second.name} == {"Zn", "Zn^2+"})
     payload = run_json(capsys, "point", "Zn", "--ph", "3", f"--potential={line.intercept!r}")

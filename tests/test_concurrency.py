@@ -65,7 +65,7 @@ class CliServer:
         env = {k: v for k, v in os.environ.items() if k not in ("DATABASE_URL", "ELECTROSIEVE_CATALOG_DIR")}
         self._log_file = open(self.log, "wb")
         self.process = subprocess.Popen(
-            [sys.executable, "-m", "app.cli", "serve", "--host", "127.0.0.1", "--port", str(self.port),
+            [sys.executable, "-m", "electrosieve.app.cli", "serve", "--host", "127.0.0.1", "--port", str(self.port),
              "--workers", str(workers), "--data-dir", str(data_dir)],
             cwd=ROOT, env=env, stdout=self._log_file, stderr=subprocess.STDOUT)
 

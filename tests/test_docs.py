@@ -5,7 +5,7 @@ from pathlib import Path
 
 import pytest
 
-from app.cli import build_parser
+from electrosieve.app.cli import build_parser
 
 ROOT = Path(__file__).resolve().parent.parent
 DOCS = (ROOT / "README.md").read_text(encoding="utf-8") + (ROOT / "DEVELOPERS.md").read_text(encoding="utf-8")
@@ -35,7 +35,7 @@ def _paths(routes) -> set[str]:
 
 
 def test_every_route_is_documented():
-    main = pytest.importorskip("app.main")
+    main = pytest.importorskip("electrosieve.app.main")
     paths = sorted(p for p in _paths(main.app.routes) | set(main.app.openapi()["paths"])
                    if not p.startswith(("/openapi", "/docs", "/redoc")))
     missing = [path for path in paths if f"`{path}`" not in DOCS and path not in ("/static", "/vendor")]

@@ -5,11 +5,11 @@ import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
-from engine.catalog import default_catalog
-from engine.constants import nernst_slope
-from engine.diagram import diagram
-from engine.domains import Window
-from engine.geometry import contains, is_convex
+from electrosieve.engine.catalog import default_catalog
+from electrosieve.engine.constants import nernst_slope
+from electrosieve.engine.diagram import diagram
+from electrosieve.engine.domains import Window
+from electrosieve.engine.geometry import contains, is_convex
 
 ELEMENTS = sorted(default_catalog().systems)
 SLOPE = nernst_slope()
@@ -107,7 +107,7 @@ def test_iron_hydroxide_boundary_near_ph_3():
     catalog = default_catalog()
     from dataclasses import replace
 
-    from engine.catalog import Catalog
+    from electrosieve.engine.catalog import Catalog
 
     system = catalog.systems["Fe"]
     without_hematite = replace(system, species=tuple(s for s in system.species if s.formula != "Fe2O3"))

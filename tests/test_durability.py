@@ -15,7 +15,7 @@ import sqlite3
 import threading
 import time
 
-from app.settings import SQLITE_FILE
+from electrosieve.app.settings import SQLITE_FILE
 from tests.utils.http import request_json
 
 ROUNDS = 3

@@ -21,9 +21,9 @@ import schemathesis
 from hypothesis import HealthCheck, settings
 from schemathesis.checks import not_a_server_error, positive_data_acceptance, response_schema_conformance
 
-from app.main import create_app
-from app.settings import Settings
-from engine.catalog import default_catalog
+from electrosieve.app.main import create_app
+from electrosieve.app.settings import Settings
+from electrosieve.engine.catalog import default_catalog
 
 FUZZ_EXAMPLES = int(os.environ.get("ELECTROSIEVE_FUZZ_EXAMPLES", "12"))
 

@@ -5,7 +5,7 @@ import pytest
 from hypothesis import assume, example, given, settings
 from hypothesis import strategies as st
 
-from engine.geometry import area, clip, contains, is_convex, rectangle
+from electrosieve.engine.geometry import area, clip, contains, is_convex, rectangle
 
 
 def test_clip_keeps_the_half_plane_and_labels_the_new_edge():
@@ -87,7 +87,7 @@ def _random_convex(seed: int) -> np.ndarray:
 @given(st.lists(st.integers(0, 10_000), min_size=1, max_size=6), st.floats(-1, 1), st.floats(-1, 1), st.floats(-1, 1))
 @example(seeds=[1], a=0.0, b=1.0, c=0.0)  # a vertical line through the middle of the plane
 def test_clip_stack_matches_clip_one_polygon_at_a_time(seeds, a, b, c):
-    from engine.geometry import clip_stack, stack, stack_areas
+    from electrosieve.engine.geometry import clip_stack, stack, stack_areas
 
     polygons = [_random_convex(seed) for seed in seeds]
     stacked, alive = clip_stack(stack(polygons, max(len(p) for p in polygons) + 2), np.ones(len(polygons), bool), a, b, c)

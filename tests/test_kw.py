@@ -9,10 +9,10 @@ import math
 
 import pytest
 
-from engine import kw
-from engine.constants import ZERO_CELSIUS
-from engine.datafiles import read_toml
-from engine.catalog import builtin_data_dir
+from electrosieve.engine import kw
+from electrosieve.engine.constants import ZERO_CELSIUS
+from electrosieve.engine.datafiles import read_toml
+from electrosieve.engine.catalog import builtin_data_dir
 
 # IAPWS R11-07 (2007), Table 3: "values for verification of computer programs", pKw at (T [K], ρ [kg/m³]).
 # From memory; the thermo library's docstring of Kweq_IAPWS quotes the (600 K, 700 kg/m³) value, 11.203153.

@@ -14,9 +14,9 @@ from pathlib import Path
 
 import pytest
 
-from engine.catalog import builtin_data_dir, default_catalog, load_catalog
-from engine.errors import CatalogError
-from engine.materials import FAMILIES
+from electrosieve.engine.catalog import builtin_data_dir, default_catalog, load_catalog
+from electrosieve.engine.errors import CatalogError
+from electrosieve.engine.materials import FAMILIES
 
 # The 35 metals of the element systems; each is a material whose id is its symbol.
 METALS = ("Pt", "Pd", "Rh", "Ir", "Ru", "Au", "Ag", "Cu", "Ni", "Co", "Fe", "Cr", "Mn", "Zn", "Cd", "Pb", "Sn",
@@ -148,7 +148,7 @@ def test_every_value_has_a_source_year_and_the_memory_flag(catalog, materials):
 
 
 def test_oxides_carry_their_element_abundance_and_contained_price(materials, mendeleev_table):
-    from engine.formula import parse_formula
+    from electrosieve.engine.formula import parse_formula
 
     for material in materials.values():
         if material.family != "oxide":

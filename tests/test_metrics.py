@@ -5,12 +5,12 @@ import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
-from engine.catalog import default_catalog
-from engine.diagram import diagram
-from engine.domains import Window
-from engine.metrics import (instability, log10_dissolved_at, max_dissolved, potential_margin, region_fractions,
+from electrosieve.engine.catalog import default_catalog
+from electrosieve.engine.diagram import diagram
+from electrosieve.engine.domains import Window
+from electrosieve.engine.metrics import (instability, log10_dissolved_at, max_dissolved, potential_margin, region_fractions,
                             region_pieces)
-from engine.window import operating_window
+from electrosieve.engine.window import operating_window
 
 CATALOG = default_catalog()
 ELEMENTS = sorted(CATALOG.systems)

@@ -8,15 +8,15 @@ from html.parser import HTMLParser
 import pytest
 from markupsafe import escape
 
-from app.cautions import CAUTIONS
-from app.figures import rich_formula
-from app.payloads import CSV_COLUMNS
-from app.models import ViewQuery
-from app.payloads import diagram_payload, sources_payload
-from app.storage import save_shortlist
-from engine.catalog import default_catalog
-from engine.constants import nernst_slope
-from engine.diagram import diagram
+from electrosieve.app.cautions import CAUTIONS
+from electrosieve.app.figures import rich_formula
+from electrosieve.app.payloads import CSV_COLUMNS
+from electrosieve.app.models import ViewQuery
+from electrosieve.app.payloads import diagram_payload, sources_payload
+from electrosieve.app.storage import save_shortlist
+from electrosieve.engine.catalog import default_catalog
+from electrosieve.engine.constants import nernst_slope
+from electrosieve.engine.diagram import diagram
 
 CATALOG = default_catalog()
 SCENARIO_QUERY = "ph_low=0&ph_high=1&potential_low=-0.2&potential_high=0&scale=SHE&role=cathode"

@@ -4,9 +4,9 @@ import math
 
 import pytest
 
-from engine.catalog import default_catalog
-from engine.constants import nernst_slope, thermal_voltage
-from engine.diagram import diagram
+from electrosieve.engine.catalog import default_catalog
+from electrosieve.engine.constants import nernst_slope, thermal_voltage
+from electrosieve.engine.diagram import diagram
 
 # Bard, Parsons & Jordan (1985), Standard Potentials in Aqueous Solution (IUPAC), chapters on Zn and Fe,
 # recalled from memory; the same values are in the CRC Handbook's electrochemical series.

@@ -2,9 +2,9 @@
 
 import pytest
 
-from engine.catalog import default_catalog
-from engine.errors import InputError
-from engine.scales import convert, from_she, to_she
+from electrosieve.engine.catalog import default_catalog
+from electrosieve.engine.errors import InputError
+from electrosieve.engine.scales import convert, from_she, to_she
 
 SCALES = default_catalog().scales
 

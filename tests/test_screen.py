@@ -4,10 +4,10 @@ import math
 
 import pytest
 
-from engine.catalog import default_catalog
-from engine.constants import KJ_PER_EV, nernst_slope
-from engine.errors import InputError
-from engine.screen import make_scenario, screen
+from electrosieve.engine.catalog import default_catalog
+from electrosieve.engine.constants import KJ_PER_EV, nernst_slope
+from electrosieve.engine.errors import InputError
+from electrosieve.engine.screen import make_scenario, screen
 
 CATALOG = default_catalog()
 
@@ -162,7 +162,7 @@ def test_bad_scenarios_name_their_field(kwargs, field, message):
 
 
 def test_a_repeated_scenario_reuses_element_verdicts_and_answers_the_same():
-    from engine.screen import VERDICTS
+    from electrosieve.engine.screen import VERDICTS
 
     scenario = make_scenario(ph=[4.2, 5.3], potential=[-0.31, 0.44], role="cathode")
     VERDICTS.clear()
@@ -180,7 +180,7 @@ def test_a_repeated_scenario_reuses_element_verdicts_and_answers_the_same():
 def test_an_overlay_catalog_never_shares_verdicts_with_the_built_in_one(tmp_path):
     # Zn2+ made far less stable in an overlay (a value invented for this test): the same scenario,
     # screened first on the built-in catalog, must then see the overlay's own diagram.
-    from engine.catalog import builtin_data_dir, load_catalog
+    from electrosieve.engine.catalog import builtin_data_dir, load_catalog
 
     original = (builtin_data_dir() / "species" / "Zn.toml").read_text(encoding="utf-8")
     (tmp_path / "Zn.toml").write_text(original.replace("dgf = -147.06", "dgf = -50.00"), encoding="utf-8")

@@ -19,7 +19,7 @@ from urllib.parse import quote
 
 import pytest
 
-from app.settings import DEFAULT_MAX_BODY_BYTES
+from electrosieve.app.settings import DEFAULT_MAX_BODY_BYTES
 
 CAP = DEFAULT_MAX_BODY_BYTES
 ACTION_MS = 15_000
@@ -231,8 +231,8 @@ def test_an_unexpected_failure_also_carries_the_policy(tmp_path):
     # Starlette answers a 500 outside every middleware: the error handler adds the headers itself.
     from fastapi.testclient import TestClient
 
-    from app.main import create_app
-    from app.settings import Settings
+    from electrosieve.app.main import create_app
+    from electrosieve.app.settings import Settings
 
     app = create_app(Settings(data_dir=tmp_path))
 

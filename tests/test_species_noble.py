@@ -11,8 +11,8 @@ rest of the data set around them, and say so.
 import numpy as np
 import pytest
 
-from engine.catalog import default_catalog
-from engine.diagram import diagram
+from electrosieve.engine.catalog import default_catalog
+from electrosieve.engine.diagram import diagram
 from tests.utils.libraries import GIBBS_COLUMN, LIBRARY_TOLERANCE, crc_aqueous_gibbs, crc_standard_gibbs, ion_formula
 from tests.utils.reactions import Check
 

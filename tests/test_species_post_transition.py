@@ -8,9 +8,9 @@ project: 0.015 V on a standard potential, 0.3 on a log K.
 
 import pytest
 
-from engine.catalog import default_catalog
-from engine.constants import KJ_PER_EV
-from engine.diagram import diagram
+from electrosieve.engine.catalog import default_catalog
+from electrosieve.engine.constants import KJ_PER_EV
+from electrosieve.engine.diagram import diagram
 from tests.utils.libraries import LIBRARY_TOLERANCE, crc_aqueous_gibbs, crc_standard_gibbs
 from tests.utils.reactions import Check
 
@@ -136,7 +136,7 @@ def test_published_potentials_of_labelled_polymorphs(element, coefficients, elec
 @pytest.mark.parametrize("element, coefficients, expected, source", LABELLED_LOGK,
                          ids=lambda v: v if isinstance(v, str) else None)
 def test_published_solubility_of_labelled_polymorphs(element, coefficients, expected, source):
-    from engine.constants import GAS_CONSTANT, LN10, T_STANDARD
+    from electrosieve.engine.constants import GAS_CONSTANT, LN10, T_STANDARD
 
     computed = -_gibbs(coefficients) * 1000.0 / (GAS_CONSTANT * T_STANDARD * LN10)
     assert abs(computed - expected) <= LOGK_TOL

@@ -9,8 +9,8 @@ facts of the trade (common practice) at a dissolved activity of 10^-6.
 
 import pytest
 
-from engine.catalog import default_catalog
-from engine.diagram import diagram
+from electrosieve.engine.catalog import default_catalog
+from electrosieve.engine.diagram import diagram
 from tests.utils.libraries import LIBRARY_TOLERANCE, crc_aqueous_gibbs, crc_standard_gibbs, ion_formula
 from tests.utils.reactions import Check
 

@@ -7,11 +7,11 @@ import urllib.request
 import pytest
 from fastapi.testclient import TestClient
 
-from app import storage
-from app.main import create_app
-from app.settings import Settings, SettingsError
-from app.storage import load_shortlist, open_storage, save_shortlist
-from engine.catalog import default_catalog
+from electrosieve.app import storage
+from electrosieve.app.main import create_app
+from electrosieve.app.settings import Settings, SettingsError
+from electrosieve.app.storage import load_shortlist, open_storage, save_shortlist
+from electrosieve.engine.catalog import default_catalog
 from tests.utils.storage_checks import (RESULT, SCENARIO, assert_a_save_is_one_transaction,
                                         assert_failed_saves_write_nothing, assert_updates_are_refused)
 

@@ -6,15 +6,15 @@ import re
 
 import pytest
 
-from engine import diagram as diagram_module
-from engine import planes as planes_module
-from engine import thermo
-from engine.catalog import default_catalog
-from engine.constants import KJ_PER_EV, T_STANDARD, ZERO_CELSIUS, nernst_slope
-from engine.diagram import _cached_diagram, check_temperature, diagram
-from engine.domains import Window
-from engine.errors import InputError
-from engine.species import Species
+from electrosieve.engine import diagram as diagram_module
+from electrosieve.engine import planes as planes_module
+from electrosieve.engine import thermo
+from electrosieve.engine.catalog import default_catalog
+from electrosieve.engine.constants import KJ_PER_EV, T_STANDARD, ZERO_CELSIUS, nernst_slope
+from electrosieve.engine.diagram import _cached_diagram, check_temperature, diagram
+from electrosieve.engine.domains import Window
+from electrosieve.engine.errors import InputError
+from electrosieve.engine.species import Species
 
 _TERM = re.compile(r"^\s*(\d+(?:\.\d+)?)?\s*(\S+)\s*$")
 
@@ -195,8 +195,8 @@ def test_tabulated_gibbs_enthalpy_and_entropy_agree(file_species):
 
 
 def test_hydroxide_follows_the_iapws_ionic_product():
-    from engine.constants import GAS_CONSTANT, LN10
-    from engine.kw import pkw
+    from electrosieve.engine.constants import GAS_CONSTANT, LN10
+    from electrosieve.engine.kw import pkw
 
     catalog = default_catalog()
     for celsius in (0.0, 60.0, 100.0, 150.0):

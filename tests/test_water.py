@@ -2,11 +2,11 @@
 
 import pytest
 
-from engine import water
-from engine.catalog import default_catalog
-from engine.constants import FARADAY, ZERO_CELSIUS, nernst_slope
-from engine.diagram import diagram
-from engine.kw import neutral_ph
+from electrosieve.engine import water
+from electrosieve.engine.catalog import default_catalog
+from electrosieve.engine.constants import FARADAY, ZERO_CELSIUS, nernst_slope
+from electrosieve.engine.diagram import diagram
+from electrosieve.engine.kw import neutral_ph
 
 # CODATA Key Values (Cox, Wagman & Medvedev 1989), S° at 298.15 K [J/(mol K)]: H2O(l) 69.95, H2(g) 130.680,
 # O2(g) 205.152 (from memory). ΔfS°(H2O, l) = −163.31 J/(mol K), so d E°(O2/H2O)/dT = ΔfS°/(2F).

@@ -3,11 +3,11 @@
 from fastapi import APIRouter, Depends, Path, Query
 from fastapi.responses import Response
 
-from engine.catalog import Catalog
-from engine.constants import ZERO_CELSIUS
-from engine.diagram import ACTIVITY_RANGE, DEFAULT_ACTIVITY, TEMPERATURE_RANGE_C, check_point, diagram
-from engine.errors import ElectrosieveError
-from engine.scales import canonical_scale, to_she
+from electrosieve.engine.catalog import Catalog
+from electrosieve.engine.constants import ZERO_CELSIUS
+from electrosieve.engine.diagram import ACTIVITY_RANGE, DEFAULT_ACTIVITY, TEMPERATURE_RANGE_C, check_point, diagram
+from electrosieve.engine.errors import ElectrosieveError
+from electrosieve.engine.scales import canonical_scale, to_she
 
 from .. import payloads, urls
 from ..models import (DiagramOut, MaterialOut, PLOT, POTENTIAL_LIMIT, PointOut, ScaleOut, ScenarioIn, ScreenResult,

@@ -14,9 +14,9 @@ from fastapi.responses import HTMLResponse, Response
 from jinja2 import Environment, FileSystemLoader, select_autoescape
 from starlette.templating import Jinja2Templates
 
-from engine.catalog import Catalog, default_catalog, load_catalog
-from engine.errors import ElectrosieveError
-from engine.screen import make_scenario, screen
+from electrosieve.engine.catalog import Catalog, default_catalog, load_catalog
+from electrosieve.engine.errors import ElectrosieveError
+from electrosieve.engine.screen import make_scenario, screen
 
 from .. import urls
 from ..cautions import CAUTIONS

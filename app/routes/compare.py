@@ -3,11 +3,11 @@
 from fastapi import APIRouter, Depends, Query, Request
 from fastapi.responses import HTMLResponse
 
-from engine.catalog import Catalog
-from engine.diagram import diagram
-from engine.errors import ElectrosieveError
-from engine.scales import canonical_scale
-from engine.screen import material_id
+from electrosieve.engine.catalog import Catalog
+from electrosieve.engine.diagram import diagram
+from electrosieve.engine.errors import ElectrosieveError
+from electrosieve.engine.scales import canonical_scale
+from electrosieve.engine.screen import material_id
 
 from .. import urls
 from ..cautions import CAUTIONS

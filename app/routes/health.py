@@ -3,7 +3,7 @@
 from fastapi import APIRouter, Depends
 from fastapi.responses import JSONResponse
 
-from engine.catalog import Catalog
+from electrosieve.engine.catalog import Catalog
 
 from ..models import ErrorBody, Health
 from ..storage import check_storage

@@ -5,10 +5,10 @@ import math
 from fastapi import APIRouter, Depends, Query, Request
 from fastapi.responses import HTMLResponse
 
-from engine.catalog import Catalog
-from engine.diagram import DEFAULT_ACTIVITY, diagram
-from engine.errors import ElectrosieveError
-from engine.scales import canonical_scale
+from electrosieve.engine.catalog import Catalog
+from electrosieve.engine.diagram import DEFAULT_ACTIVITY, diagram
+from electrosieve.engine.errors import ElectrosieveError
+from electrosieve.engine.scales import canonical_scale
 
 from .. import urls
 from ..cautions import CAUTIONS

@@ -3,8 +3,8 @@
 from fastapi import APIRouter, Depends, Request
 from fastapi.responses import HTMLResponse, Response
 
-from engine.catalog import Catalog
-from engine.ranking import RANK_KEYS
+from electrosieve.engine.catalog import Catalog
+from electrosieve.engine.ranking import RANK_KEYS
 
 from .. import urls
 from ..cautions import CAUTIONS

@@ -11,7 +11,7 @@ from fastapi import APIRouter, Depends, Request
 from fastapi.responses import HTMLResponse, RedirectResponse, Response
 from pydantic import ValidationError
 
-from engine.catalog import Catalog
+from electrosieve.engine.catalog import Catalog
 
 from .. import urls
 from ..models import (FieldError, RankCheck, ScenarioIn, ShortlistCreate, ShortlistLinks, ShortlistPublic, ViewQuery,

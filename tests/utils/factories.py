@@ -1,7 +1,7 @@
 """Test data builders: catalogs with chosen materials, without touching data/materials.toml."""
 
-from engine.catalog import Catalog, default_catalog
-from engine.materials import HazardRow, Material
+from electrosieve.engine.catalog import Catalog, default_catalog
+from electrosieve.engine.materials import HazardRow, Material
 
 
 def metal(element: str, family: str = "transition", price: float | None = None, hazards=()) -> Material:

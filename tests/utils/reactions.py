@@ -8,8 +8,8 @@ catalog names them (``Zn^2+``, ``HZnO2^-``, ``H2O``, ``H^+``, ``OH^-``) and
 import re
 from dataclasses import dataclass
 
-from engine.catalog import Catalog, default_catalog
-from engine.constants import KJ_PER_EV, LN10, T_STANDARD, GAS_CONSTANT
+from electrosieve.engine.catalog import Catalog, default_catalog
+from electrosieve.engine.constants import KJ_PER_EV, LN10, T_STANDARD, GAS_CONSTANT
 
 _TERM = re.compile(r"^\s*(?:(\d+(?:\.\d+)?)\s+)?(.+?)\s*$")
 

@@ -6,7 +6,7 @@ import pytest
 from sqlalchemy import func, select, text
 from sqlalchemy.exc import DatabaseError
 
-from app.storage import NOTE_MAX, TITLE_MAX, load_shortlist, save_shortlist, shortlists
+from electrosieve.app.storage import NOTE_MAX, TITLE_MAX, load_shortlist, save_shortlist, shortlists
 
 SCENARIO = {"ph": [0, 1], "potential": [-0.2, 0.0], "role": "cathode", "materials": ["Pt", "Zn"]}
 RESULT = {"catalog_version": "abc123", "results": [{"material": "Pt"}, {"material": "Zn"}], "rule": "r"}
