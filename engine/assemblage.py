@@ -210,8 +210,11 @@ class MaterialDiagram:
             return self.components_at(*vertices[0])
         weighted = []
         for domain in self.domains:
-            piece, _ = envelope_piece(self.planes, domain.index, vertices, np.full(len(vertices), WINDOW_EDGE))
-            weight = area(piece) if len(piece) >= 3 else (float(np.hypot(*np.ptp(piece, axis=0))) if len(piece) == 2 else 0.0)
+            if len(vertices) == 2:
+                weight = _segment_length_inside(domain.vertices, vertices[0], vertices[1])
+            else:
+                piece, _ = envelope_piece(self.planes, domain.index, vertices, np.full(len(vertices), WINDOW_EDGE))
+                weight = area(piece) if len(piece) >= 3 else 0.0
             if weight > 0:
                 weighted.append((domain.assemblage, weight))
         if not weighted:  # a degenerate piece on a boundary: judge its first corner
@@ -254,6 +257,27 @@ def _fates(elements: tuple[str, ...], weighted: list[tuple[Assemblage, float]]) 
     return tuple(fates)
 
 
+def _segment_length_inside(polygon: np.ndarray, start: np.ndarray, end: np.ndarray) -> float:
+    """Length of the segment start→end inside a counter-clockwise convex polygon (Cyrus & Beck, Comput.
+    Graph. 3, 23, 1978: clip the parameter t ∈ [0, 1] by each edge's half-plane)."""
+    direction = end - start
+    low, high = 0.0, 1.0
+    following = np.roll(polygon, -1, axis=0)
+    for a, b in zip(polygon, following):
+        normal = np.array([b[1] - a[1], a[0] - b[0]])  # outward for a counter-clockwise polygon
+        offset, rate = float(normal @ (start - a)), float(normal @ direction)
+        if rate == 0.0:
+            if offset > 0.0:
+                return 0.0
+        elif rate > 0.0:
+            high = min(high, -offset / rate)
+        else:
+            low = max(low, -offset / rate)
+        if low >= high:
+            return 0.0
+    return (high - low) * float(np.hypot(*direction))
+
+
 def _check_inside(window: Window, ph, potential) -> tuple[float, float]:
     ph = check_number(ph, "ph", window.ph_min, window.ph_max, " (the diagram's pH window)")
     potential = check_number(potential, "potential", window.e_min, window.e_max, " V vs SHE (the diagram's window)")
@@ -288,7 +312,7 @@ def check_composition(composition, catalog: Catalog) -> tuple[tuple[str, float],
     checked: dict[str, float] = {}
     for element, amount in composition.items():
         symbol = catalog.system(element).element
-        value = check_number(amount, "composition", 0.0, None, f" (amount of {symbol})")
+        value = check_number(amount, "composition", 0.0, 1e6, f" (amount of {symbol})")
         if value <= 0.0 or symbol in checked:
             raise InputError(f"composition: {symbol} must appear once with a positive amount (given {amount!r})",
                              field="composition")
