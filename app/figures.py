@@ -102,8 +102,9 @@ def place_labels(domains: list[dict], ph_range: list[float], e_range: list[float
 
     Each label sits at its domain's Chebyshev centre in plot-shaped coordinates. Domains are served
     largest first; a label is the species over its region word, shortened to the species alone when the
-    two-line box does not fit the domain or would overlap a placed label, and left out (hover and the
-    "Domains in words" list still name it) when even that overlaps. Returns one entry per domain:
+    two-line box does not fit the domain or would overlap a placed label, and left out when the domain is
+    thinner than a line of type or even the short label would overlap (hover and the
+    "Domains in words" list still name it). Returns one entry per domain:
     ``{"x", "y", "text"}`` with ``text`` None for a left-out label.
     """
     ph_span = ph_range[1] - ph_range[0]
@@ -128,7 +129,8 @@ def place_labels(domains: list[dict], ph_range: list[float], e_range: list[float
         )
         for text, width, height in choices:
             half = np.array([width / 2 + 0.006, height / 2 + 0.004])
-            fits = np.hypot(*half) <= radius * 1.35 or text is choices[-1][0]
+            fits = np.hypot(*half) <= radius * 1.35 if height > LINE_HEIGHT else radius >= 0.4 * LINE_HEIGHT
+            centre = np.clip(centre, half, np.array([1.0, PLOT_ASPECT]) - half)
             clear = all(np.any(np.abs(centre - other) >= half + other_half) for other, other_half in placed)
             if fits and clear:
                 placed.append((centre, half))
@@ -201,14 +203,14 @@ def diagram_figure(payload: dict, *, operating_window: list[list[float]] | None 
     figure.update_layout(
         title={"text": title or f"{payload['element']} · dissolved species at {payload['activity']:g} · "
                                 f"{payload['temperature_c']:g} °C", "x": 0.01, "xanchor": "left",
-               "font": {"size": 14}},
+               "y": 0.985, "yanchor": "top", "font": {"size": 14}},
         xaxis={"title": {"text": "pH"}, "range": ph_range, "zeroline": False, "hoverformat": ".2f"},
         yaxis={"title": {"text": f"E / {unit}"}, "zeroline": False, "hoverformat": ".3f",
                "range": None if offset_slope else [e_range[0] - potential_offset, e_range[1] - potential_offset]},
         template="simple_white", font={"family": FONT, "color": INK},
-        legend={"orientation": "h", "x": 0, "xanchor": "left", "y": 1.0, "yanchor": "bottom",
-                "font": {"size": 11}, "bgcolor": "rgba(255,255,255,0)"},
-        margin={"l": 64, "r": 16, "t": 78, "b": 52},
+        legend={"orientation": "h", "x": 0, "xanchor": "left", "xref": "container", "y": 0, "yanchor": "bottom",
+                "yref": "container", "font": {"size": 11}, "bgcolor": "rgba(255,255,255,0)"},
+        margin={"l": 64, "r": 16, "t": 40, "b": 100},
         hoverlabel={"font": {"family": FONT}},
     )
     return figure
