@@ -54,17 +54,6 @@ def rich_formula(name: str) -> str:
     return head + space + label + (f"<sup>{charge}</sup>" if caret else "")
 
 
-def plain_length(name: str) -> int:
-    """Characters a formula occupies when drawn (sub- and superscripts count as narrow: two for three).
-
-    >>> plain_length("CrO4^2-")
-    5
-    """
-    formula, _, charge = name.partition("^")
-    digits = sum(ch.isdigit() for ch in formula)
-    return len(formula) - digits + round((digits + len(charge)) * 2 / 3)
-
-
 def chebyshev_centre(points: np.ndarray) -> tuple[np.ndarray, float]:
     """Centre and radius of the largest circle inside a convex polygon (its Chebyshev centre).
 
@@ -122,9 +111,9 @@ def place_labels(domains: list[dict], ph_range: list[float], e_range: list[float
         domain = domains[index]
         species = rich_formula(domain["formula"])
         region = domain["region"]
-        width_species = plain_length(domain["formula"]) * CHAR_WIDTH
+        width_species = len(domain["formula"].replace("^", "")) * CHAR_WIDTH
         choices = (
-            (f"{species}<br><i>{region}</i>", max(width_species, len(region) * CHAR_WIDTH * 0.85), 2 * LINE_HEIGHT),
+            (f"{species}<br><i>{region}</i>", max(width_species, len(region) * CHAR_WIDTH), 2 * LINE_HEIGHT),
             (species, width_species, LINE_HEIGHT),
         )
         for text, width, height in choices:
@@ -146,7 +135,7 @@ def scale_label(scales: dict, scale_id: str) -> str:
     """
     if re.fullmatch(r"[A-Z]+", scale_id):
         return scale_id
-    return scales[scale_id]["name"] if scale_id in scales else scale_id
+    return scales[scale_id].name if scale_id in scales else scale_id
 
 
 def diagram_figure(payload: dict, *, operating_window: list[list[float]] | None = None,
