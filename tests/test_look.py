@@ -207,3 +207,79 @@ def test_diagram_toolbar_has_no_action_that_leaves_the_machine():
     for setting in ("displaylogo: false", "showSendToCloud: false", "showEditInChartStudio: false", "showLink: false"):
         assert setting in PLOTS_JS
     assert '"sendDataToCloud"' in PLOTS_JS and '"editInChartStudio"' in PLOTS_JS  # both in the removed list
+
+
+# ---- in a real browser (Debian's Chromium; skipped with the reason when it is missing) ----
+
+BROWSER_MS = 20_000
+"""Longest wait of any one browser step [ms]."""
+SCENARIO = "ph_low=0&ph_high=1&potential_low=1.4&potential_high=1.8&scale=RHE&role=anode"
+SIZES = [(1366, 768), (390, 844)]
+
+
+@pytest.fixture(scope="module")
+def shortlist_path(live_server):
+    import json
+    import urllib.request
+
+    body = {"title": "Acid anodes", "scenario": {"ph": [0, 1], "potential": [1.4, 1.8], "scale": "RHE", "role": "anode"},
+            "notes": {"Ir": "a note beside its row"}}
+    request = urllib.request.Request(f"{live_server.url}/api/v1/shortlists", data=json.dumps(body).encode(),
+                                     headers={"Content-Type": "application/json"}, method="POST")
+    with urllib.request.urlopen(request, timeout=30) as answer:
+        return json.load(answer)["url"]
+
+
+def page_paths(shortlist: str) -> dict[str, tuple[str, str]]:
+    return {
+        "screen": (f"/?{SCENARIO}", "body[data-ready='1']"),
+        "compare": (f"/compare?{SCENARIO}&compare=Ir&compare=Pt&compare=Au", "body[data-plots-ready='1']"),
+        "material": ("/materials/Zn?axis=HgHgO-1M", "body[data-plots-ready='1']"),
+        "shortlist": (shortlist, "#ranking"),
+    }
+
+
+@pytest.mark.parametrize("size", SIZES, ids=lambda s: f"{s[0]}x{s[1]}")
+@pytest.mark.parametrize("name", ["screen", "compare", "material", "shortlist"])
+def test_no_horizontal_scrolling(browser, live_server, shortlist_path, name, size):
+    width, height = size
+    context = browser.new_context(viewport={"width": width, "height": height}, is_mobile=width < 600)
+    try:
+        page = context.new_page()
+        page.set_default_timeout(BROWSER_MS)
+        path, ready = page_paths(shortlist_path)[name]
+        page.goto(live_server.url + path)
+        page.wait_for_selector(ready)
+        assert page.evaluate("() => document.documentElement.scrollWidth") <= width
+        # nor inside the ranking: the list fits its box
+        for box in page.query_selector_all("#ranking"):
+            assert box.evaluate("table => table.parentElement.scrollWidth <= table.parentElement.clientWidth + 1")
+    finally:
+        context.close()
+
+
+def test_diagram_toolbar_offers_only_local_actions(page, live_server):
+    page.set_default_timeout(BROWSER_MS)
+    page.goto(f"{live_server.url}/compare?{SCENARIO}&compare=Ir&compare=Pt")
+    page.wait_for_selector("body[data-plots-ready='1']")
+    titles = page.eval_on_selector_all(".modebar-btn", "buttons => buttons.map(b => b.dataset.title || '')")
+    assert titles and any("png" in title.lower() for title in titles)
+    assert not [t for t in titles if re.search(r"cloud|studio|edit|plotly", t, re.I)], titles
+    assert page.locator(".modebar a[href^='http']").count() == 0
+    # the readout names pH and volts on the plot's own scale
+    box = page.locator(".plot .nsewdrag >> nth=0").bounding_box()
+    page.mouse.move(box["x"] + box["width"] * 0.3, box["y"] + box["height"] * 0.4)
+    assert re.fullmatch(r"pH -?\d+\.\d\d · E -?\d+\.\d{3} V vs RHE", page.inner_text(".plot-readout >> nth=0"))
+
+
+def test_print_hides_controls_and_keeps_the_results(page, live_server):
+    page.set_default_timeout(BROWSER_MS)
+    page.goto(f"{live_server.url}/?{SCENARIO}")
+    page.wait_for_selector("body[data-ready='1']")
+    page.emulate_media(media="print")
+    page.evaluate("() => window.dispatchEvent(new Event('beforeprint'))")
+    for control in ("#scenario-form", "#save-form", "#compare-button", "#csv-link", ".masthead nav"):
+        assert not page.locator(control).is_visible(), control
+    for kept in ("#scenario-line", "#ranking", ".cautions li >> nth=0", "#sources-heading", "[data-print-date]"):
+        assert page.locator(kept).is_visible(), kept
+    assert re.search(r"\d{4}", page.inner_text("[data-print-date]"))
