@@ -170,10 +170,11 @@ def diagram_figure(payload: dict, *, operating_window: list[list[float]] | None 
         shown_regions.add(domain["region"])
     e_all = [y for d in shaped for _, y in d["polygon"]] or [0.0, 1.0]
     e_view = [min(e_all), max(e_all)]
-    for label in place_labels(shaped, ph_range, e_view):
-        if label["text"]:
+    for label, domain in zip(place_labels(shaped, ph_range, e_view), shaped):
+        if label["text"]:  # on a patch of its own fill, so a water line under it does not strike it through
             figure.add_annotation(x=label["x"], y=label["y"], text=label["text"], showarrow=False,
-                                  font={"size": 12, "color": INK})
+                                  font={"size": 12, "color": INK}, bgcolor=REGION_STYLE[domain["region"]]["fill"],
+                                  borderpad=1)
     for key, style in WATER_STYLE.items():
         line = payload["water"][key]
         figure.add_trace(go.Scatter(
