@@ -7,7 +7,7 @@ STAMP_TEST := $(VENV)/.installed-test
 HOST ?= 127.0.0.1
 PORT ?= 8000
 
-.PHONY: serve test test-deep bench browser clean
+.PHONY: serve test test-deep bench browser screenshots clean
 
 $(BIN)/python:
 	$(PYTHON) -m venv $(VENV)
@@ -36,6 +36,10 @@ test-deep: $(STAMP_TEST) browser
 
 bench: $(STAMP_TEST)
 	$(BIN)/python bench/run.py
+
+# docs/screenshots/<page>-<width>x<height>.png of the main pages, from a real server and Chromium
+screenshots: $(STAMP_TEST) browser
+	$(BIN)/python tools/screenshots.py
 
 clean:
 	rm -rf $(VENV) build *.egg-info

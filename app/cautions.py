@@ -1,11 +1,22 @@
-"""Plain-words cautions shown wherever results appear (CLI, API, pages)."""
+"""Plain-words cautions shown wherever results appear (CLI, API, pages); the last defers to local rules.
+
+Each caution opens with its subject and a colon, so a page can show the subjects as a summary line.
+"""
 
 CAUTIONS = (
-    "Thermodynamics says what can happen, not how fast: a 'stable' verdict ignores kinetics, and a "
-    "'corrosion' verdict may be slow in practice.",
-    "Passivation does not guarantee protection: films can be porous or poorly adherent, and chlorides break them.",
-    "Below the H2/H2O line the cell evolves hydrogen, a flammable gas; above the O2/H2O line it evolves oxygen, "
-    "and chloride electrolytes can release chlorine, a toxic gas. Ventilate and keep ignition sources away.",
-    "Dissolved metals can be toxic: Cr(VI), Pb, Cd, Hg, Ni and others. Handle and dispose of electrolytes as hazardous waste.",
-    "Confirm every choice experimentally and follow your institution's safety rules and local codes.",
+    "Hydrogen: below the H2/H2O line the cathode gives off hydrogen, which burns and explodes in air. In an "
+    "undivided cell it mixes with the anode's oxygen into an explosive gas: separate or vent the gases, keep "
+    "sparks and flames away.",
+    "Chlorine: chloride electrolytes can give off chlorine at the anode, a toxic gas. Work in a fume hood.",
+    "Hot caustic and hot acid: hot alkali and hot acid burn skin and eyes fast and deep. Wear a face shield, "
+    "gloves and an apron; keep an eyewash within reach.",
+    "Hydrofluoric acid: fluoride in acid etches glass and dissolves titanium and its oxide film; it burns "
+    "through skin with delayed pain and poisons. Use plastic ware and have calcium gluconate gel and a plan ready.",
+    "Toxic dissolved metals: spent electrolytes can carry Cr(VI), Pb, Cd, Hg, Ni and others. Collect and dispose "
+    "of them as hazardous waste.",
+    "Electrical supplies: power supplies can shock, spark and overheat leads. Switch off before touching "
+    "electrodes or connections, insulate and fuse the circuit.",
+    "Limits: thermodynamics says what can happen, not how fast; passive films can be porous or broken by "
+    "chloride. Confirm every choice by experiment.",
+    "Your rules first: local codes and your institution's safety rules take precedence over these notes.",
 )

@@ -1,20 +1,46 @@
 """Plotly figures of E–pH diagrams: exact domain polygons, water lines and an operating window.
 
-Regions are told apart by fill pattern and label as well as by colour; the
-palette keeps the three regions apart for the common colour-vision deficiencies
-(tints of blue, ochre and vermilion of differing lightness).
+The look follows docs/DESIGN.md: each region kind has its own flat fill, ordered by lightness
+(immunity lightest, corrosion darkest), and every label names the region in words under the species,
+so nothing depends on colour alone.
 """
 
+import itertools
+import json
 import re
 
+import numpy as np
 import plotly.graph_objects as go
 
+INK = "#1d262b"
+"""Body text and label colour (docs/DESIGN.md)."""
+
 REGION_STYLE = {
-    "immunity": {"fill": "rgba(52, 101, 164, 0.30)", "line": "#274b7a", "pattern": ""},
-    "passivation": {"fill": "rgba(222, 170, 60, 0.38)", "line": "#8a6414", "pattern": "/"},
-    "corrosion": {"fill": "rgba(206, 92, 60, 0.30)", "line": "#8f3a22", "pattern": "x"},
+    "immunity": {"fill": "#f3f0f7", "line": "#4a4468"},
+    "passivation": {"fill": "#b9e0c6", "line": "#1f5c3b"},
+    "insulating film": {"fill": "#dcd08e", "line": "#5a5012"},
+    "hydride": {"fill": "#b6a6de", "line": "#4c3a8c"},
+    "corrosion": {"fill": "#e07fab", "line": "#8d1d52"},
 }
-"""Fill, outline and pattern of each region."""
+"""Flat fill and outline of each region kind; the same hex values as ``--region-*`` in static/css/site.css."""
+
+WATER_STYLE = {
+    "hydrogen": {"name": "H₂/H₂O, 1 bar", "line": {"color": INK, "dash": "dash", "width": 1.6}},
+    "oxygen": {"name": "O₂/H₂O, 1 bar", "line": {"color": INK, "dash": "dot", "width": 2.2}},
+}
+"""The two water lines: the same ink, long dashes for hydrogen and round dots for oxygen."""
+
+WINDOW_STYLE = {"color": "#0d5c63", "width": 2.5}
+WINDOW_FILL = "rgba(13, 92, 99, 0.14)"
+FONT = "system-ui, -apple-system, 'Segoe UI', Roboto, 'Noto Sans', Arial, sans-serif"
+
+PLOT_ASPECT = 0.62
+"""Height over width of the plotting area assumed when placing labels (the pages draw at about this shape)."""
+CHAR_WIDTH = 0.0125
+"""Width of one label character as a share of the plot width (12 px type on a ~700 px plot)."""
+LINE_HEIGHT = 0.034
+"""Height of one label line as a share of the plot width."""
+
 
 def rich_formula(name: str) -> str:
     """A species name with sub- and superscripts in Plotly's HTML subset: ``CrO4^2-`` → ``CrO<sub>4</sub><sup>2-</sup>``.
@@ -28,9 +54,88 @@ def rich_formula(name: str) -> str:
     return head + space + label + (f"<sup>{charge}</sup>" if caret else "")
 
 
-WATER_STYLE = {"color": "#1b1b1b", "dash": "dash", "width": 1.6}
-WINDOW_STYLE = {"color": "#6a3d9a", "width": 2.5}
-WINDOW_FILL = "rgba(106, 61, 154, 0.10)"
+def chebyshev_centre(points: np.ndarray) -> tuple[np.ndarray, float]:
+    """Centre and radius of the largest circle inside a convex polygon (its Chebyshev centre).
+
+    Exact: the optimum of max r s.t. nᵢ·x + r ≤ cᵢ (unit outward normals nᵢ) lies where three edge
+    constraints are tight, so every triple is solved and the best feasible one kept (Boyd &
+    Vandenberghe 2004, §8.5.1). Vertices in counter-clockwise or clockwise order.
+
+    >>> centre, radius = chebyshev_centre(np.array([[0, 0], [4, 0], [4, 2], [0, 2]], float))
+    >>> round(radius, 9), round(float(centre[1]), 9)
+    (1.0, 1.0)
+    """
+    edges = np.roll(points, -1, axis=0) - points
+    lengths = np.hypot(edges[:, 0], edges[:, 1])
+    keep = lengths > 1e-12
+    edges, starts, lengths = edges[keep], points[keep], lengths[keep]
+    if len(edges) < 3:
+        return points.mean(axis=0), 0.0
+    normals = np.column_stack([edges[:, 1], -edges[:, 0]]) / lengths[:, None]
+    if np.sum(edges[:, 0] * np.roll(edges[:, 1], -1) - edges[:, 1] * np.roll(edges[:, 0], -1)) < 0:
+        normals = -normals  # clockwise: (dy, -dx) points inward
+    offsets = np.sum(normals * starts, axis=1)
+    best, best_r = points.mean(axis=0), 0.0
+    for trio in itertools.combinations(range(len(normals)), 3):
+        system = np.column_stack([normals[list(trio)], np.ones(3)])
+        if abs(np.linalg.det(system)) < 1e-12:
+            continue
+        x, y, r = np.linalg.solve(system, offsets[list(trio)])
+        if r > best_r and np.all(normals @ np.array([x, y]) + r <= offsets + 1e-9):
+            best, best_r = np.array([x, y]), float(r)
+    return best, best_r
+
+
+def place_labels(domains: list[dict], ph_range: list[float], e_range: list[float]) -> list[dict]:
+    """Where each domain's label goes, deterministically and without two labels overlapping.
+
+    Each label sits at its domain's Chebyshev centre in plot-shaped coordinates. Domains are served
+    largest first; a label is the species over its region word, shortened to the species alone when the
+    two-line box does not fit the domain or would overlap a placed label, and left out when the domain is
+    thinner than a line of type or even the short label would overlap (hover and the
+    "Domains in words" list still name it). Returns one entry per domain:
+    ``{"x", "y", "text"}`` with ``text`` None for a left-out label.
+    """
+    ph_span = ph_range[1] - ph_range[0]
+    e_span = e_range[1] - e_range[0]
+    scale = np.array([1.0 / ph_span, PLOT_ASPECT / e_span])
+    origin = np.array([ph_range[0], e_range[0]])
+    candidates = []
+    for index, domain in enumerate(domains):
+        shaped = (np.asarray(domain["polygon"], float) - origin) * scale
+        centre, radius = chebyshev_centre(shaped)
+        candidates.append((radius, index, centre))
+    placed: list[tuple[np.ndarray, np.ndarray]] = []
+    labels: list[dict] = [{"x": None, "y": None, "text": None} for _ in domains]
+    for radius, index, centre in sorted(candidates, key=lambda c: (-c[0], c[1])):
+        domain = domains[index]
+        species = rich_formula(domain["formula"])
+        region = domain["region"]
+        width_species = len(domain["formula"].replace("^", "")) * CHAR_WIDTH
+        choices = (
+            (f"{species}<br><i>{region}</i>", max(width_species, len(region) * CHAR_WIDTH), 2 * LINE_HEIGHT),
+            (species, width_species, LINE_HEIGHT),
+        )
+        for text, width, height in choices:
+            half = np.array([width / 2 + 0.006, height / 2 + 0.004])
+            fits = np.hypot(*half) <= radius * 1.35 if height > LINE_HEIGHT else radius >= 0.4 * LINE_HEIGHT
+            centre = np.clip(centre, half, np.array([1.0, PLOT_ASPECT]) - half)
+            clear = all(np.any(np.abs(centre - other) >= half + other_half) for other, other_half in placed)
+            if fits and clear:
+                placed.append((centre, half))
+                x, y = centre / scale + origin
+                labels[index] = {"x": float(x), "y": float(y), "text": text}
+                break
+    return labels
+
+
+def scale_label(scales: dict, scale_id: str) -> str:
+    """The reference electrode as a reader names it: the trade's abbreviation (SHE, RHE, SCE, MSE) when the
+    id is one, otherwise the electrode's name from data/scales.toml (``HgHgO-1M`` → ``Hg/HgO in 1 M NaOH``).
+    """
+    if re.fullmatch(r"[A-Z]+", scale_id):
+        return scale_id
+    return scales[scale_id].name if scale_id in scales else scale_id
 
 
 def diagram_figure(payload: dict, *, operating_window: list[list[float]] | None = None,
@@ -38,9 +143,9 @@ def diagram_figure(payload: dict, *, operating_window: list[list[float]] | None 
                    offset_slope: float = 0.0) -> go.Figure:
     """A figure from a diagram payload (``app.payloads.diagram_payload``).
 
-    The potential axis is shown on ``scale``: E_scale = E_SHE − potential_offset − offset_slope·pH
-    (offset_slope is the Nernst slope for the RHE, 0 otherwise). ``operating_window`` is a polygon
-    [[pH, E vs SHE], …] drawn on top.
+    The potential axis is shown on ``scale`` (a label, see :func:`scale_label`):
+    E_scale = E_SHE − potential_offset − offset_slope·pH (offset_slope is the Nernst slope for the RHE,
+    0 otherwise). ``operating_window`` is a polygon [[pH, E vs SHE], …] drawn on top.
     """
 
     def on_scale(ph: float, e: float) -> float:
@@ -48,45 +153,55 @@ def diagram_figure(payload: dict, *, operating_window: list[list[float]] | None 
 
     figure = go.Figure()
     shown_regions: set[str] = set()
+    ph_range = payload["window"]["ph"]
+    unit = f"V vs {scale}"
+    shaped = []
     for domain in payload["domains"]:
         style = REGION_STYLE[domain["region"]]
         xs = [p[0] for p in domain["polygon"]] + [domain["polygon"][0][0]]
         ys = [on_scale(*p) for p in domain["polygon"]] + [on_scale(*domain["polygon"][0])]
-        label = f"{rich_formula(domain['formula'])} ({domain['phase']})"
+        shaped.append({**domain, "polygon": list(zip(xs[:-1], ys[:-1]))})
         figure.add_trace(go.Scatter(
             x=xs, y=ys, mode="lines", fill="toself", fillcolor=style["fill"],
-            fillpattern={"shape": style["pattern"], "fgcolor": style["line"], "size": 9, "solidity": 0.15},
-            line={"color": style["line"], "width": 1.2}, name=domain["region"],
+            line={"color": "rgba(29, 38, 43, 0.55)", "width": 0.8}, name=domain["region"],
             legendgroup=domain["region"], showlegend=domain["region"] not in shown_regions,
-            hoveron="fills", text=f"{label}: {domain['region']}", hoverinfo="text",
+            hoveron="fills", text=f"{domain['formula']} ({domain['phase']}): {domain['region']}", hoverinfo="text",
         ))
         shown_regions.add(domain["region"])
-        centre_x = sum(xs[:-1]) / len(xs[:-1])
-        centre_y = sum(ys[:-1]) / len(ys[:-1])
-        figure.add_annotation(x=centre_x, y=centre_y, text=rich_formula(domain["formula"]), showarrow=False,
-                              font={"size": 12, "color": "#1b1b1b"})
-    ph_range = payload["window"]["ph"]
-    for key, name in (("hydrogen", "H2/H2O"), ("oxygen", "O2/H2O")):
+    e_all = [y for d in shaped for _, y in d["polygon"]] or [0.0, 1.0]
+    e_view = [min(e_all), max(e_all)]
+    for label, domain in zip(place_labels(shaped, ph_range, e_view), shaped):
+        if label["text"]:  # on a patch of its own fill, so a water line under it does not strike it through
+            figure.add_annotation(x=label["x"], y=label["y"], text=label["text"], showarrow=False,
+                                  font={"size": 12, "color": INK}, bgcolor=REGION_STYLE[domain["region"]]["fill"],
+                                  borderpad=1)
+    for key, style in WATER_STYLE.items():
         line = payload["water"][key]
         figure.add_trace(go.Scatter(
             x=ph_range, y=[on_scale(ph, line["intercept"] + line["slope"] * ph) for ph in ph_range],
-            mode="lines", line=WATER_STYLE, name=f"{name} (1 bar)", hoverinfo="name",
+            mode="lines", line=style["line"], name=style["name"],
+            hovertemplate=f"{style['name']}<br>pH %{{x:.2f}}, E %{{y:.3f}} {unit}<extra></extra>",
         ))
     if operating_window:
         xs = [p[0] for p in operating_window] + [operating_window[0][0]]
         ys = [on_scale(*p) for p in operating_window] + [on_scale(*operating_window[0])]
-        figure.add_trace(go.Scatter(x=xs, y=ys, mode="lines+markers", line=WINDOW_STYLE, fill="toself",
-                                    fillcolor=WINDOW_FILL, marker={"size": 5}, name="operating window",
-                                    hoveron="points+fills", hoverinfo="name"))
+        figure.add_trace(go.Scatter(
+            x=xs, y=ys, mode="lines+markers", line=WINDOW_STYLE, fill="toself", fillcolor=WINDOW_FILL,
+            marker={"size": 6, "symbol": "diamond"}, name="operating window", hoveron="points+fills",
+            hovertemplate=f"operating window corner<br>pH %{{x:.2f}}, E %{{y:.3f}} {unit}<extra></extra>"))
     e_range = payload["window"]["potential"]
     figure.update_layout(
-        title=title or f"{payload['element']}: E–pH diagram, dissolved species at {payload['activity']:g}, "
-                       f"{payload['temperature_c']:g} °C",
-        xaxis={"title": "pH", "range": ph_range, "zeroline": False},
-        yaxis={"title": f"E / V vs {scale}", "zeroline": False,
+        title={"text": title or f"{payload['element']} · dissolved species at {payload['activity']:g} · "
+                                f"{payload['temperature_c']:g} °C", "x": 0.01, "xanchor": "left",
+               "y": 0.985, "yanchor": "top", "font": {"size": 14}},
+        xaxis={"title": {"text": "pH"}, "range": ph_range, "zeroline": False, "hoverformat": ".2f"},
+        yaxis={"title": {"text": f"E / {unit}"}, "zeroline": False, "hoverformat": ".3f",
                "range": None if offset_slope else [e_range[0] - potential_offset, e_range[1] - potential_offset]},
-        template="simple_white", font={"family": "Inter, 'Segoe UI', Helvetica, Arial, sans-serif"},
-        legend={"orientation": "h", "y": -0.15}, margin={"l": 60, "r": 20, "t": 50, "b": 40},
+        template="simple_white", font={"family": FONT, "color": INK},
+        legend={"orientation": "h", "x": 0, "xanchor": "left", "xref": "container", "y": 0, "yanchor": "bottom",
+                "yref": "container", "font": {"size": 11}, "bgcolor": "rgba(255,255,255,0)"},
+        margin={"l": 64, "r": 16, "t": 40, "b": 100},
+        hoverlabel={"font": {"family": FONT}},
     )
     return figure
 
@@ -95,7 +210,8 @@ def write_figure(figure: go.Figure, path: str) -> None:
     """Write ``figure`` as .html (self-contained, works offline), .svg or .png (needs kaleido and Chromium)."""
     lower = path.lower()
     if lower.endswith(".html"):
-        figure.write_html(path, include_plotlyjs=True, full_html=True)
+        figure.write_html(path, include_plotlyjs=True, full_html=True,
+                          config={"displaylogo": False, "showSendToCloud": False, "showEditInChartStudio": False})
     elif lower.endswith((".svg", ".png")):
         figure.write_image(path, width=900, height=650)
     else:
@@ -120,11 +236,9 @@ def axis_offsets(scales: dict, scale_id: str, temperature_c: float) -> tuple[flo
 def figure_dict(payload: dict, *, scales: dict, scale_id: str = "SHE", operating_window=None,
                 title: str | None = None) -> dict:
     """The figure of a diagram payload as plain JSON (``data`` and ``layout``) for plotly.js in the page."""
-    import json
-
     offset, slope = axis_offsets(scales, scale_id, payload["temperature_c"])
     figure = diagram_figure(payload, operating_window=operating_window, title=title, potential_offset=offset,
-                            scale=scale_id, offset_slope=slope)
+                            scale=scale_label(scales, scale_id), offset_slope=slope)
     figure.update_layout(template=None, plot_bgcolor="#ffffff", paper_bgcolor="#ffffff",
                          xaxis={"showline": True, "linecolor": "#444", "ticks": "outside", "mirror": True},
                          yaxis={"showline": True, "linecolor": "#444", "ticks": "outside", "mirror": True})

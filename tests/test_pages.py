@@ -208,16 +208,17 @@ def test_pages_use_no_inline_script_and_label_every_control(client, shortlist_id
     assert "script-src 'self'" in response.headers["content-security-policy"]
 
 
-def test_compare_page_draws_two_to_four_diagrams_with_patterns_and_labels(client):
+def test_compare_page_draws_two_to_four_diagrams_with_fills_and_labels(client):
     page = client.get(f"/compare.json?{COMPARE_QUERY}").json()
     assert [d["material"] for d in page["diagrams"]] == ["Pt", "Zn", "Cu"]
     for item in page["diagrams"]:
         figure = item["figure"]
         fills = [t for t in figure["data"] if t.get("fill") == "toself" and t.get("name") != "operating window"]
-        patterns = {t["name"]: t["fillpattern"]["shape"] for t in fills}
-        assert len(set(patterns.values())) == len(patterns)  # each region its own pattern
-        labels = {a["text"] for a in figure["layout"]["annotations"]}
-        assert {rich_formula(d["formula"]) for d in item["diagram"]["domains"]} <= labels
+        colours = {t["name"]: t["fillcolor"] for t in fills}
+        assert len(set(colours.values())) == len(colours)  # each region its own fill
+        labels = [a["text"] for a in figure["layout"]["annotations"]]
+        species = {rich_formula(d["formula"]) for d in item["diagram"]["domains"]}
+        assert labels and all(text.split("<br>")[0] in species for text in labels)  # placed labels name species
         hovers = [t["text"] for t in fills]
         assert all(":" in text and text.split(": ")[-1] in ("immunity", "passivation", "corrosion") for text in hovers)
     html = client.get(f"/compare?{COMPARE_QUERY}").text
