@@ -1,8 +1,8 @@
 """Plotly figures of E–pH diagrams: exact domain polygons, water lines and an operating window.
 
 Regions are told apart by fill pattern and label as well as by colour; the
-palette keeps the three regions apart for the common colour-vision deficiencies
-(tints of blue, ochre and vermilion of differing lightness).
+palette keeps the four regions apart for the common colour-vision deficiencies
+(tints of blue, ochre, grey and vermilion of differing lightness).
 """
 
 import re
@@ -12,6 +12,7 @@ import plotly.graph_objects as go
 REGION_STYLE = {
     "immunity": {"fill": "rgba(52, 101, 164, 0.30)", "line": "#274b7a", "pattern": ""},
     "passivation": {"fill": "rgba(222, 170, 60, 0.38)", "line": "#8a6414", "pattern": "/"},
+    "hydride": {"fill": "rgba(120, 120, 120, 0.32)", "line": "#3d3d3d", "pattern": "."},
     "corrosion": {"fill": "rgba(206, 92, 60, 0.30)", "line": "#8f3a22", "pattern": "x"},
 }
 """Fill, outline and pattern of each region."""
