@@ -282,7 +282,9 @@ def load_catalog(data_dir: Path | None = None, overlay: Path | None = None) -> C
     check_catalog(catalog)
     materials_path = base / "materials.toml"
     if materials_path.exists():
-        catalog = replace(catalog, materials=load_materials(materials_path, catalog))
+        overlaid = {system.element: Path(system.path) for system in systems.values()
+                    if overlay is not None and Path(system.path).parent != base / "species"}
+        catalog = replace(catalog, materials=load_materials(materials_path, catalog, overlaid))
     return catalog
 
 
