@@ -455,6 +455,7 @@ class MaterialPage(Out):
     axis: str
     links: dict[str, str]
     cautions: list[str]
+    unchecked: list[str] = Field(description="species of the element whose values no independent published check covers")
 
 
 class MaterialsPage(Out):

@@ -164,3 +164,14 @@ def test_species_without_an_independent_check_are_listed_in_their_files(capsys):
     stale = {e: (sorted(names), sorted(catalog.system(e).unchecked))
              for e, names in computed.items() if sorted(names) != sorted(catalog.system(e).unchecked)}
     assert not stale, f"update 'unchecked' in these species files (computed, listed): {stale}"
+
+
+def test_material_page_shows_its_unchecked_species():
+    from fastapi.testclient import TestClient
+
+    from electrosieve.app.main import create_app
+
+    client = TestClient(create_app())
+    page = client.get("/materials/Ti.json").json()
+    assert set(page["unchecked"]) == {s.name for s in default_catalog().unchecked("Ti")} and "TiH2" in page["unchecked"]
+    assert "TiH2" in client.get("/materials/Ti").text.split("without an independent check")[1]
