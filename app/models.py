@@ -108,6 +108,7 @@ class ScenarioEcho(Out):
 class Fractions(Out):
     immunity: float
     passivation: float
+    hydride: float
     corrosion: float
 
 
