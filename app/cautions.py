@@ -12,6 +12,8 @@ CAUTIONS = (
     "gloves and an apron; keep an eyewash within reach.",
     "Hydrofluoric acid: fluoride in acid etches glass and dissolves titanium and its oxide film; it burns "
     "through skin with delayed pain and poisons. Use plastic ware and have calcium gluconate gel and a plan ready.",
+    "Hydrides: in a 'hydride' region the metal takes up hydrogen; titanium, zirconium and similar cathodes "
+    "there form brittle hydrides and can crack or shed. Do not use them as hydrogen-evolving cathodes without tests.",
     "Toxic dissolved metals: spent electrolytes can carry Cr(VI), Pb, Cd, Hg, Ni and others. Collect and dispose "
     "of them as hazardous waste.",
     "Electrical supplies: power supplies can shock, spark and overheat leads. Switch off before touching "

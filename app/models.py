@@ -108,6 +108,7 @@ class ScenarioEcho(Out):
 class Fractions(Out):
     immunity: float
     passivation: float
+    hydride: float
     corrosion: float
 
 
@@ -455,6 +456,7 @@ class MaterialPage(Out):
     axis: str
     links: dict[str, str]
     cautions: list[str]
+    unchecked: list[str] = Field(description="species of the element whose values no independent published check covers")
 
 
 class MaterialsPage(Out):

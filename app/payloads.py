@@ -121,7 +121,7 @@ def screen_payload(result: dict) -> dict:
     return {**result, "cautions": list(CAUTIONS)}
 
 
-CSV_COLUMNS = ("rank", "material", "name", "element", "phase", "family", "verdict", "immunity", "passivation",
+CSV_COLUMNS = ("rank", "material", "name", "element", "phase", "family", "verdict", "immunity", "passivation", "hydride",
                "corrosion", "instability_ev", "log10_dissolved", "margin_mv", "price_usd_per_kg", "price_year",
                "hazards", "reason")
 

@@ -56,13 +56,42 @@ class SpeciesRow(_Strict):
         return value
 
 
+NO_DISSOLVED = "none in data"
+"""A species file's ``dissolved_species`` flag: the sources give no dissolved species of the element, so
+how much of it dissolves is unknown (never "nothing dissolves")."""
+
+NOTE_KINDS = ("kinetic", "scope", "hazard")
+"""Kinds of file-level notes: a kinetic caveat on a thermodynamic prediction, what the system leaves out, a hazard."""
+
+
+class NoteRow(_Strict):
+    """One ``[[notes]]`` entry of a species file: a fact about the system that is not a number."""
+
+    kind: Literal[NOTE_KINDS]  # type: ignore[valid-type]
+    text: str = Field(min_length=1)
+    source: str
+    species: list[str] = Field(default_factory=list, description="species names the note is about")
+
+
 class SpeciesFile(_Strict):
     """A species file: one element system (or the water file)."""
 
     element: str
     from_memory: bool = False
     note: str = ""
+    dissolved_species: Literal[NO_DISSOLVED] | None = None  # type: ignore[valid-type]
+    unchecked: list[str] = Field(default_factory=list, description="species with no independent cross-check")
+    notes: list[NoteRow] = Field(default_factory=list)
     species: list[SpeciesRow] = Field(min_length=1)
+
+
+class UncertaintyClass(_Strict):
+    """A default uncertainty of dgf for rows that state none (``data/uncertainty.toml``)."""
+
+    uncertainty: Number = Field(gt=0, description="uncertainty of dgf [kJ/mol]")
+    basis: str = Field(min_length=1)
+    source: str = ""
+    sources: list[str] = Field(default_factory=list, description="source keys of the compilations in this class")
 
 
 class SourceRow(_Strict):
@@ -95,11 +124,14 @@ class ScaleRow(_Strict):
 
 @dataclass(frozen=True)
 class ElementSystem:
-    """All species of one element, in file order."""
+    """All species of one element, in file order, with the file's flags and notes."""
 
     element: str
     species: tuple[Species, ...]
     path: str = ""
+    lacks_dissolved: bool = False
+    unchecked: tuple[str, ...] = ()
+    notes: tuple[NoteRow, ...] = ()
 
     def find(self, name: str) -> Species:
         """The species called ``name`` (as shown to users), case-sensitive."""
@@ -120,6 +152,7 @@ class Catalog:
     scales: dict[str, ScaleRow]
     materials: dict = field(default_factory=dict)
     version: str = ""
+    uncertainty_classes: dict = field(default_factory=dict)
 
     def system(self, element: str) -> ElementSystem:
         """The element system for ``element`` (case-insensitive), or a clear error listing the known ones."""
@@ -128,6 +161,19 @@ class Catalog:
             return found
         known = ", ".join(sorted(self.systems))
         raise CatalogError(f"unknown element {element!r}; known elements: {known}", field="element")
+
+    def lacks_dissolved(self, element: str) -> bool:
+        """True when the data hold no dissolved species of ``element``: its dissolution is unknown, not nil."""
+        return self.system(element).lacks_dissolved
+
+    def notes(self, element: str, kind: str | None = None) -> tuple[NoteRow, ...]:
+        """The file-level notes of ``element``'s system, of one ``kind`` (see :data:`NOTE_KINDS`) or all."""
+        return tuple(n for n in self.system(element).notes if kind is None or n.kind == kind)
+
+    def unchecked(self, element: str) -> tuple[Species, ...]:
+        """Species of ``element`` whose values no independent published check covers (kept true by a test)."""
+        system = self.system(element)
+        return tuple(s for s in system.species if s.name in system.unchecked)
 
 
 @lru_cache(maxsize=16)
@@ -146,14 +192,39 @@ def load_species_file(path: Path) -> SpeciesFile:
         raise CatalogError(describe(error, path, "file header")) from None
 
 
-def _to_system(path: Path, parsed: SpeciesFile) -> ElementSystem:
+def _to_system(path: Path, parsed: SpeciesFile, classes: dict[str, UncertaintyClass]) -> ElementSystem:
     species = []
-    for index, row in enumerate(parsed.species):
+    for row in parsed.species:
         values = row.model_dump()
         if values["from_memory"] is None:
             values["from_memory"] = parsed.from_memory
+        if values["uncertainty"] is None and parse_formula(values["formula"]) == {parsed.element: 1} \
+                and values["charge"] == 0 and values["phase"] != "aqueous":
+            values["uncertainty"] = 0.0  # the element in its reference state: dgf = 0 by definition
+        if values["uncertainty"] is None:
+            values["uncertainty"] = classes[uncertainty_class(values["source"], values["from_memory"], classes)].uncertainty
         species.append(Species.create(parsed.element, **values))
-    return ElementSystem(element=parsed.element, species=tuple(species), path=str(path))
+    return ElementSystem(element=parsed.element, species=tuple(species), path=str(path),
+                         lacks_dissolved=parsed.dissolved_species == NO_DISSOLVED,
+                         unchecked=tuple(parsed.unchecked), notes=tuple(parsed.notes))
+
+
+UNCERTAINTY_CLASSES = ("reviewed", "estimate", "from_memory")
+"""Data classes of ``data/uncertainty.toml``, each with its default uncertainty of dgf."""
+
+
+def uncertainty_class(source: str, from_memory: bool, classes: dict[str, UncertaintyClass]) -> str:
+    """The data class of a row that states no uncertainty: from memory, a reviewed table, or an estimate.
+
+    >>> reviewed = UncertaintyClass(uncertainty=0.5, basis="b", sources=["wagman1982"])
+    >>> uncertainty_class("wagman1982", False, {"reviewed": reviewed})
+    'reviewed'
+    """
+    if from_memory:
+        return "from_memory"
+    if source in classes["reviewed"].sources:
+        return "reviewed"
+    return "estimate"
 
 
 def _load_table(path: Path, model: type[BaseModel], entry_word: str) -> dict:
@@ -178,6 +249,11 @@ def load_catalog(data_dir: Path | None = None, overlay: Path | None = None) -> C
             raise CatalogError(f"--data {overlay}: not a directory", field="data")
     sources = _load_table(base / "sources.toml", SourceRow, "source")
     scales = _load_table(base / "scales.toml", ScaleRow, "scale")
+    classes = _load_table(base / "uncertainty.toml", UncertaintyClass, "data class")
+    missing = [name for name in UNCERTAINTY_CLASSES if name not in classes]
+    if missing:
+        raise CatalogError(f"{base / 'uncertainty.toml'}: missing data class {missing[0]!r} "
+                           f"(needs {', '.join(UNCERTAINTY_CLASSES)})")
     species_files = {path.name: path for path in sorted((base / "species").glob("*.toml"))}
     if overlay is not None:
         extra = sorted((overlay / "species").glob("*.toml")) + sorted(overlay.glob("*.toml"))
@@ -192,19 +268,23 @@ def load_catalog(data_dir: Path | None = None, overlay: Path | None = None) -> C
     water: dict[str, Species] = {}
     for name, path in species_files.items():
         parsed = load_species_file(path)
-        system = _to_system(path, parsed)
+        system = _to_system(path, parsed, classes)
         if name == WATER_FILE:
             water = {s.name: s for s in system.species}
         else:
             systems[parsed.element] = system
-    read = [base / "sources.toml", base / "scales.toml", base / "materials.toml", *species_files.values()]
+    read = [base / "sources.toml", base / "scales.toml", base / "uncertainty.toml", base / "materials.toml",
+            *species_files.values()]
     if overlay is not None:
         read.append(overlay / "sources.toml")
-    catalog = Catalog(systems=systems, water=water, sources=sources, scales=scales, version=_digest(read))
+    catalog = Catalog(systems=systems, water=water, sources=sources, scales=scales, version=_digest(read),
+                      uncertainty_classes=classes)
     check_catalog(catalog)
     materials_path = base / "materials.toml"
     if materials_path.exists():
-        catalog = replace(catalog, materials=load_materials(materials_path, catalog))
+        overlaid = {system.element: Path(system.path) for system in systems.values()
+                    if overlay is not None and Path(system.path).parent != base / "species"}
+        catalog = replace(catalog, materials=load_materials(materials_path, catalog, overlaid))
     return catalog
 
 

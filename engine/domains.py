@@ -16,8 +16,9 @@ from .geometry import EPS, WINDOW_EDGE, area, clip, rectangle
 from .planes import Planes
 from .species import Species
 
-MIN_DOMAIN_AREA = 1e-10
-"""Domains smaller than this [pH·V] are touching points or lines, not areas, and are dropped."""
+MIN_DOMAIN_AREA = 1e-12
+"""Domains smaller than this fraction of the window's area are touching points or lines, not areas, and are
+dropped (relative, as :func:`geometry.clip` treats slivers, so a tiny window still has its domains)."""
 
 
 @dataclass(frozen=True)
@@ -103,7 +104,7 @@ def domain_of(planes: Planes, index: int, window: Window, competitors: np.ndarra
     """The domain of species ``index`` within ``window``, or None when it is nowhere the most stable."""
     vertices, labels = envelope_piece(planes, index, *rectangle(window.ph_min, window.ph_max, window.e_min, window.e_max),
                                       competitors=competitors)
-    if len(vertices) < 3 or area(vertices) < MIN_DOMAIN_AREA:
+    if len(vertices) < 3 or area(vertices) < MIN_DOMAIN_AREA * window.area:
         return None
     return Domain(index=index, species=planes.species[index], vertices=vertices, neighbours=labels)
 
@@ -147,7 +148,7 @@ def _boundary(planes: Planes, i: int, j: int, start: np.ndarray, end: np.ndarray
 TIE = 1e-9
 """Two Φ values closer than this [eV] are equal: the point lies on a boundary."""
 
-SEVERITY = {"immunity": 0, "passivation": 1, "corrosion": 2}
+SEVERITY = {"immunity": 0, "passivation": 1, "hydride": 2, "corrosion": 3}
 """On a boundary a point takes the less noble side: corrosion over passivation over immunity."""
 
 

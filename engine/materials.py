@@ -43,8 +43,13 @@ Material = MaterialRow
 """A loaded material is its validated row."""
 
 
-def load_materials(path: Path, catalog) -> dict[str, Material]:
-    """Read ``materials.toml`` and check each row against ``catalog`` (element, phase, source keys)."""
+def load_materials(path: Path, catalog, overlaid: dict[str, Path] | None = None) -> dict[str, Material]:
+    """Read ``materials.toml`` and check each row against ``catalog`` (element, phase, source keys).
+
+    ``overlaid`` maps each element whose species file a user's overlay replaced to that file: a material
+    the overlay breaks is reported against the overlay file, its species and the field.
+    """
+    overlaid = overlaid or {}
     document = read_toml(path)
     rows = validate_rows(path, document.get("material", []), MaterialRow, "material")
     materials: dict[str, Material] = {}
@@ -55,6 +60,12 @@ def load_materials(path: Path, catalog) -> dict[str, Material]:
         if row.element not in catalog.systems:
             raise CatalogError(f"{where}: field 'element': no species file for {row.element!r}")
         names = {s.name for s in catalog.systems[row.element].species}
+        if row.element in overlaid:
+            where = f"{overlaid[row.element]}: species {{}}: field 'formula': the built-in material {row.id!r} needs it"
+            for needed in [row.phase, *(hazard.species for hazard in row.hazards)]:
+                if needed not in names:
+                    raise CatalogError(where.format(repr(needed)) + f" (known: {', '.join(sorted(names))})")
+            where = f"{path}: material {row.id!r}"
         if row.phase not in names:
             raise CatalogError(f"{where}: field 'phase': {row.phase!r} is not a species of {row.element}")
         for key_field in ("price_source", "abundance_source"):

@@ -100,7 +100,8 @@ def _weighted_scores(rows: list[dict], weights: dict[str, float]) -> list[float]
     return scores
 
 
-REGION_WORDS = {"immunity": "immune as {}", "passivation": "passive as {}", "corrosion": "dissolves as {}"}
+REGION_WORDS = {"immunity": "immune as {}", "passivation": "passive as {}", "hydride": "takes up hydrogen as {}",
+                "corrosion": "dissolves as {}"}
 
 
 def reason(row: dict) -> str:

@@ -24,7 +24,7 @@ from .water import conditions_note
 from .window import OperatingWindow, operating_window
 
 ROLES = ("anode", "cathode")
-REGIONS = ("immunity", "passivation", "corrosion")
+REGIONS = ("immunity", "passivation", "hydride", "corrosion")
 DEFAULT_ACCEPT = {"cathode": ("immunity",), "anode": ("immunity", "passivation")}
 """Acceptable regions by role: a cathode must stay metallic; an anode may also carry a solid film (common practice)."""
 

@@ -22,6 +22,9 @@ DISSOLVED_PHASES = ("aqueous",)
 # Elements of the solvent that may accompany the metal in a species.
 SOLVENT_ELEMENTS = ("H", "O")
 
+REGIONS = ("immunity", "passivation", "hydride", "corrosion")
+"""The regions a species' domain belongs to, from least to most severe (see :attr:`Species.region`)."""
+
 
 @dataclass(frozen=True)
 class Species:
@@ -96,10 +99,26 @@ class Species:
         return self.composition == {self.element: self.metal_atoms} and self.charge == 0 and not self.is_dissolved
 
     @property
+    def is_hydride(self) -> bool:
+        """True for a condensed metal hydride: the element and hydrogen, no oxygen (TiH2, ZrH2).
+
+        >>> Species.create("Ti", formula="TiH2", charge=0, phase="solid", dgf=-105.1, source="x").is_hydride
+        True
+        """
+        return (not self.is_dissolved and self.phase != "gas" and self.hydrogen_atoms > 0
+                and self.oxygen_atoms == 0 and self.charge == 0)
+
+    @property
     def region(self) -> str:
-        """The corrosion-diagram region: immunity, passivation or corrosion (Pourbaix 1966, ch. 3)."""
+        """The corrosion-diagram region: immunity, passivation, corrosion (Pourbaix 1966, ch. 3) or hydride.
+
+        A hydride is neither the metal nor a protective film: the metal takes up hydrogen, swells and
+        embrittles (hydrogen embrittlement of titanium and zirconium cathodes, common practice).
+        """
         if self.is_element:
             return "immunity"
         if self.is_dissolved or self.phase == "gas":
             return "corrosion"
+        if self.is_hydride:
+            return "hydride"
         return "passivation"

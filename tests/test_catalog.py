@@ -127,3 +127,49 @@ def test_every_source_field_in_every_data_file_resolves():
         with path.open("rb") as handle:
             unknown = set(source_keys(tomllib.load(handle))) - known
         assert not unknown, f"{path.name}: unknown source keys {sorted(unknown)}"
+
+
+def test_overlay_flag_of_no_dissolved_species_must_be_true(tmp_path):
+    overlay = _overlay(tmp_path, 'element = "Zn"\ndissolved_species = "none in data"\n'
+                       '[[species]]\nformula = "Zn"\ncharge = 0\nphase = "solid"\ndgf = 0.0\nsource = "wagman1982"\n'
+                       '[[species]]\nformula = "Zn"\ncharge = 2\nphase = "aqueous"\ndgf = -147.06\nsource = "wagman1982"\n')
+    with pytest.raises(CatalogError, match=r"Zn.toml: field 'dissolved_species'.*Zn\^2\+"):
+        load_catalog(overlay=overlay)
+
+
+def test_overlay_note_must_cite_a_known_source(tmp_path):
+    overlay = _overlay(tmp_path, 'element = "Zn"\n[[notes]]\nkind = "kinetic"\ntext = "slow"\nsource = "nowhere"\n'
+                       '[[species]]\nformula = "Zn"\ncharge = 0\nphase = "solid"\ndgf = 0.0\nsource = "wagman1982"\n')
+    with pytest.raises(CatalogError, match=r"Zn.toml: notes #1: field 'source'"):
+        load_catalog(overlay=overlay)
+
+
+def test_unchecked_list_names_only_species_of_its_file(tmp_path):
+    overlay = _overlay(tmp_path, 'element = "Zn"\nunchecked = ["ZnO9"]\n'
+                       '[[species]]\nformula = "Zn"\ncharge = 0\nphase = "solid"\ndgf = 0.0\nsource = "wagman1982"\n')
+    with pytest.raises(CatalogError, match=r"Zn.toml: field 'unchecked'"):
+        load_catalog(overlay=overlay)
+
+
+def test_overlay_rows_without_uncertainty_get_their_class_default(tmp_path):
+    overlay = _overlay(tmp_path, 'element = "Zn"\n'
+                       '[[species]]\nformula = "Zn"\ncharge = 0\nphase = "solid"\ndgf = 0.0\nsource = "wagman1982"\n'
+                       '[[species]]\nformula = "ZnO"\ncharge = 0\nphase = "solid"\ndgf = -318.30\nsource = "wagman1982"\n'
+                       '[[species]]\nformula = "Zn"\ncharge = 2\nphase = "aqueous"\ndgf = -147.06\nsource = "pourbaix1966"\n'
+                       '[[species]]\nformula = "HZnO2"\ncharge = -1\nphase = "aqueous"\ndgf = -457.3\nsource = "baes1976"\n'
+                       '[[species]]\nformula = "ZnO2"\ncharge = -2\nphase = "aqueous"\ndgf = -384.2\nsource = "wagman1982"\n')
+    catalog = load_catalog(overlay=overlay)
+    zinc = catalog.system("Zn")
+    assert zinc.find("ZnO").uncertainty == catalog.uncertainty_classes["reviewed"].uncertainty
+    assert zinc.find("Zn^2+").uncertainty == catalog.uncertainty_classes["estimate"].uncertainty
+    assert zinc.find("Zn").uncertainty == 0.0
+
+
+def test_overlay_that_breaks_a_built_in_material_names_the_overlay_species_and_field(tmp_path):
+    # the built-in zinc material flags Zn^2+ as a hazard; an overlay without it is at fault, not materials.toml
+    overlay = _overlay(tmp_path, 'element = "Zn"\n' + ZINC_ROW)
+    with pytest.raises(CatalogError) as caught:
+        load_catalog(overlay=overlay)
+    message = str(caught.value)
+    assert message.startswith(str(overlay / "Zn.toml")) and "species 'Zn^2+'" in message and "field" in message
+    assert "materials.toml" not in message

@@ -115,7 +115,7 @@ def test_screen_json_contract(capsys):
     assert payload["scenario"]["ph"] == [0.0, 1.0] and payload["scenario"]["materials"] == ["Pt", "Zn"]
     for row in payload["results"]:
         assert {"material", "rank", "fractions", "instability_ev", "log10_dissolved", "margin_mv", "reason", "hazards"} <= set(row)
-        assert set(row["fractions"]) == {"immunity", "passivation", "corrosion"}
+        assert set(row["fractions"]) == {"immunity", "passivation", "hydride", "corrosion"}
     assert [row["material"] for row in payload["results"]] == ["Pt", "Zn"]
     assert payload["cautions"]
 

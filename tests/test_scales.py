@@ -1,8 +1,11 @@
 """Reference-scale conversions, both ways, against tabulated reference-electrode potentials."""
 
+import math
+
 import pytest
 
 from electrosieve.engine.catalog import default_catalog
+from electrosieve.engine.constants import FARADAY, GAS_CONSTANT, KJ_PER_EV, LN10, T_STANDARD
 from electrosieve.engine.errors import InputError
 from electrosieve.engine.scales import convert, from_she, to_she
 
@@ -10,8 +13,13 @@ SCALES = default_catalog().scales
 
 # Potentials vs SHE at 25 °C, recalled from memory: Bard & Faulkner (2001), Electrochemical Methods,
 # Appendix C (SCE 0.2412 V, Ag/AgCl sat. KCl 0.197 V); Sawyer, Sobkowiak & Roberts (1995),
-# Electrochemistry for Chemists, ch. 5 (Ag/AgCl 3 M KCl 0.210 V, Hg/HgO 1 M NaOH 0.140 V, MSE 0.640 V).
-PUBLISHED = {"SCE": 0.2412, "AgAgCl-sat": 0.197, "AgAgCl-3M": 0.210, "HgHgO-1M": 0.140, "MSE": 0.640}
+# Electrochemistry for Chemists, ch. 5 (Ag/AgCl 3 M KCl 0.210 V, MSE 0.640 V). Their Hg/HgO 1 M NaOH 0.140 V
+# is not used: see test_mercury_oxide_references_follow_the_couple_and_the_activities.
+PUBLISHED = {"SCE": 0.2412, "AgAgCl-sat": 0.197, "AgAgCl-3M": 0.210, "MSE": 0.640}
+
+# Robinson & Stokes (1959), Electrolyte Solutions, Appendix 8.10: mean activity coefficients at 1 mol/kg and
+# 25 °C, KOH 0.756, NaOH 0.679; water activity at 1 mol/kg about 0.965 for both (recalled from memory).
+HYDROXIDES = {"HgHgO-1M-KOH": (0.756, 0.965), "HgHgO-1M": (0.679, 0.966)}
 
 
 @pytest.mark.parametrize("scale, expected", PUBLISHED.items())
@@ -63,3 +71,31 @@ def test_scale_outside_its_tabulated_range_is_refused():
 def test_rhe_slope_follows_temperature():
     # RT ln10 / F at 80 °C = 0.07007 V per pH unit (common practice)
     assert to_she(SCALES, 0.0, "RHE", ph=10, temperature_k=353.15) == pytest.approx(-10 * 0.070071, abs=2e-5)
+
+
+def test_mercury_oxide_couple_matches_its_tabulated_standard_potential():
+    # Bard, Parsons & Jordan (1985), mercury: HgO(red) + H2O + 2 e- = Hg + 2 OH-, E0 = 0.0977 V (recalled).
+    catalog = default_catalog()
+    hgo = catalog.system("Hg").find("HgO (red)").dgf
+    water, hydroxide = catalog.water["H2O"].dgf, catalog.water["OH^-"].dgf
+    e0 = -(2 * hydroxide - hgo - water) / (2 * KJ_PER_EV)
+    assert e0 == pytest.approx(0.0977, abs=0.002)
+
+
+@pytest.mark.parametrize("scale", sorted(HYDROXIDES))
+def test_mercury_oxide_references_follow_the_couple_and_the_activities(scale):
+    """E = E0 - (RT/F) ln a(OH-) + (RT/2F) ln a(H2O): the stored potential is the thermodynamic one.
+
+    The commonly quoted 0.140 V for 1 M NaOH (Sawyer et al. 1995) lies about 33 mV above it; published
+    calibrations of Hg/HgO in 1 M KOH spread from 0.098 V (E0 alone) to about 0.11 V.
+    """
+    gamma, water_activity = HYDROXIDES[scale]
+    slope = GAS_CONSTANT * T_STANDARD * LN10 / FARADAY
+    expected = 0.0977 - slope * math.log10(gamma) + slope / 2 * math.log10(water_activity)
+    assert to_she(SCALES, 0.0, scale) == pytest.approx(expected, abs=0.002)
+    assert 0.098 - 0.002 <= to_she(SCALES, 0.0, scale) <= 0.112
+
+
+def test_sodium_hydroxide_electrode_is_not_the_often_quoted_value():
+    # the 0.140 V of Sawyer et al. (1995) is 30 mV or more above the thermodynamic value: not used
+    assert 0.140 - to_she(SCALES, 0.0, "HgHgO-1M") > 0.025

@@ -65,7 +65,7 @@ def test_worked_example_copper_cathode_by_hand():
     row = rows(run(ph=2, potential=0.0, role="cathode", materials=["Cu"]))["Cu"]
     slope = nernst_slope()
     cu2_line = 0.340 + slope / 2 * math.log10(1e-6)
-    assert row["fractions"] == {"immunity": 1.0, "passivation": 0.0, "corrosion": 0.0}
+    assert row["fractions"] == {"immunity": 1.0, "passivation": 0.0, "hydride": 0.0, "corrosion": 0.0}
     assert row["margin_mv"] == pytest.approx(1000 * cu2_line, abs=10)
     log_cu1 = (0.0 - 0.520) / slope
     log_cu2 = 2 * (0.0 - 0.340) / slope

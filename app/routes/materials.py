@@ -83,7 +83,8 @@ def material_page_data(material_id: str, catalog: Catalog, activity: str | None,
              "sources_api": urls.api_sources(material.element), "materials": urls.materials_page()}
     return MaterialPage(material=listed, diagram=payload, figure=figure,
                         sources=sources_payload(catalog, material.element), scales=form_choices(catalog)["scales"],
-                        axis=axis_id, links=links, cautions=list(CAUTIONS))
+                        axis=axis_id, links=links, cautions=list(CAUTIONS),
+                        unchecked=[species.name for species in catalog.unchecked(material.element)])
 
 
 MATERIAL_QUERY = {
