@@ -12,7 +12,8 @@ import sys
 from pathlib import Path
 
 from electrosieve.engine.catalog import Catalog, default_catalog, load_catalog
-from electrosieve.engine.diagram import DEFAULT_ACTIVITY, Window, check_point, check_temperature, diagram
+from electrosieve.engine.diagram import Window, check_point, diagram
+from electrosieve.engine.limits import DEFAULT_ACTIVITY, check_temperature
 from electrosieve.engine.errors import ElectrosieveError, InputError
 from electrosieve.engine.scales import canonical_scale, convert, needs_ph, to_she
 

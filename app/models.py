@@ -16,7 +16,7 @@ from typing import Annotated, Literal
 from pydantic import AfterValidator, BaseModel, ConfigDict, Field, StringConstraints, ValidationError, WithJsonSchema
 from pydantic_core import PydanticCustomError
 
-from electrosieve.engine.diagram import ACTIVITY_RANGE, DEFAULT_ACTIVITY, TEMPERATURE_RANGE_C
+from electrosieve.engine.limits import ACTIVITY_RANGE, DEFAULT_ACTIVITY, TEMPERATURE_RANGE_C
 from electrosieve.engine.domains import Window
 from electrosieve.engine.materials import FAMILIES
 from electrosieve.engine.ranking import DEFAULT_ORDER, RANK_KEYS

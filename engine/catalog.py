@@ -22,7 +22,7 @@ from .materials import load_materials
 from .formula import FormulaError, parse_formula
 from .species import PHASES, Species
 
-WATER_FILE = "water.toml"
+WATER_SPECIES_FILE = "water.toml"
 """Species file holding H2O, H+, OH-, H2 and O2 (the solvent and its ions)."""
 
 
@@ -193,7 +193,7 @@ def load_catalog(data_dir: Path | None = None, overlay: Path | None = None) -> C
     for name, path in species_files.items():
         parsed = load_species_file(path)
         system = _to_system(path, parsed)
-        if name == WATER_FILE:
+        if name == WATER_SPECIES_FILE:
             water = {s.name: s for s in system.species}
         else:
             systems[parsed.element] = system

@@ -5,7 +5,6 @@ planes (``planes``), computes the exact domains (``domains``) and caches the
 result per (element, activity, temperature, window).
 """
 
-import math
 from dataclasses import dataclass
 from functools import cached_property, lru_cache
 
@@ -16,20 +15,11 @@ from .constants import ZERO_CELSIUS
 from .domains import Boundary, Domain, Window, boundaries, stability_domains, stable_index_at
 from .errors import InputError
 from .geometry import stack
+from .limits import DEFAULT_ACTIVITY, check_activity, check_number, check_temperature
 from .planes import Planes, build_planes
 from .species import Species
 from .thermo import formation_gibbs
 from .water import WaterLines, water_lines
-
-DEFAULT_ACTIVITY = 1e-6
-"""Activity of every dissolved species: 10^-6, the usual corrosion convention (Pourbaix 1966, ch. 3) [common practice]."""
-
-ACTIVITY_RANGE = (1e-8, 1.0)
-"""Allowed dissolved-species activities."""
-
-TEMPERATURE_RANGE_C = (0.0, 150.0)
-"""Allowed temperatures [°C]: liquid water at or above its saturation pressure."""
-
 
 @dataclass(frozen=True)
 class Diagram:
@@ -58,28 +48,6 @@ class Diagram:
     def stable_species_at(self, ph: float, potential: float) -> Species:
         """The species of lowest Φ at (pH, E [V vs SHE])."""
         return self.planes.species[stable_index_at(self.planes, ph, potential)]
-
-
-def check_number(value, field: str, low: float | None = None, high: float | None = None, what: str = "") -> float:
-    """``value`` as a finite float within [low, high], or an :class:`InputError` naming ``field``."""
-    if isinstance(value, bool) or not isinstance(value, (int, float)):
-        raise InputError(f"{field} must be a number (given {value!r})", field=field)
-    value = float(value)
-    if not math.isfinite(value):
-        raise InputError(f"{field} must be a finite number (given {value!r})", field=field)
-    if (low is not None and value < low) or (high is not None and value > high):
-        raise InputError(f"{field} must be between {low:g} and {high:g}{what} (given {value:g})", field=field)
-    return value
-
-
-def check_activity(activity) -> float:
-    """The dissolved-species activity, checked against :data:`ACTIVITY_RANGE`."""
-    return check_number(activity, "activity", *ACTIVITY_RANGE)
-
-
-def check_temperature(temperature_c) -> float:
-    """The temperature [°C], checked against :data:`TEMPERATURE_RANGE_C`."""
-    return check_number(temperature_c, "temperature", *TEMPERATURE_RANGE_C, what=" °C")
 
 
 def check_window(window: Window) -> Window:

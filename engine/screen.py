@@ -13,9 +13,10 @@ from functools import cached_property
 from threading import Lock
 
 from .catalog import Catalog, default_catalog
-from .diagram import DEFAULT_ACTIVITY, Diagram, check_activity, check_temperature, diagram
+from .diagram import Diagram, diagram
 from .domains import Window
 from .errors import InputError
+from .limits import DEFAULT_ACTIVITY, check_activity, check_temperature
 from .materials import FAMILIES, Material
 from .metrics import largest_gap, margin, overlays, region_fractions
 from .ranking import DEFAULT_ORDER, RANK_KEYS, check_order, check_weights, rank, reason

@@ -12,9 +12,9 @@ from functools import cached_property
 import numpy as np
 
 from .constants import ZERO_CELSIUS
-from .diagram import check_number
 from .domains import Window
 from .errors import InputError
+from .limits import check_number
 from .scales import canonical_scale, to_she
 
 

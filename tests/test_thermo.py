@@ -11,7 +11,8 @@ from electrosieve.engine import planes as planes_module
 from electrosieve.engine import thermo
 from electrosieve.engine.catalog import default_catalog
 from electrosieve.engine.constants import KJ_PER_EV, T_STANDARD, ZERO_CELSIUS, nernst_slope
-from electrosieve.engine.diagram import _cached_diagram, check_temperature, diagram
+from electrosieve.engine.diagram import _cached_diagram, diagram
+from electrosieve.engine.limits import check_temperature
 from electrosieve.engine.domains import Window
 from electrosieve.engine.errors import InputError
 from electrosieve.engine.species import Species

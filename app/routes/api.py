@@ -5,7 +5,8 @@ from fastapi.responses import Response
 
 from electrosieve.engine.catalog import Catalog
 from electrosieve.engine.constants import ZERO_CELSIUS
-from electrosieve.engine.diagram import ACTIVITY_RANGE, DEFAULT_ACTIVITY, TEMPERATURE_RANGE_C, check_point, diagram
+from electrosieve.engine.diagram import check_point, diagram
+from electrosieve.engine.limits import ACTIVITY_RANGE, DEFAULT_ACTIVITY, TEMPERATURE_RANGE_C
 from electrosieve.engine.errors import ElectrosieveError
 from electrosieve.engine.scales import canonical_scale, to_she
 

@@ -6,7 +6,8 @@ from fastapi import APIRouter, Depends, Query, Request
 from fastapi.responses import HTMLResponse
 
 from electrosieve.engine.catalog import Catalog
-from electrosieve.engine.diagram import DEFAULT_ACTIVITY, diagram
+from electrosieve.engine.diagram import diagram
+from electrosieve.engine.limits import DEFAULT_ACTIVITY
 from electrosieve.engine.errors import ElectrosieveError
 from electrosieve.engine.scales import canonical_scale
 
