@@ -12,11 +12,10 @@ import sys
 from pathlib import Path
 
 from electrosieve.engine.catalog import Catalog, default_catalog, load_catalog
-from electrosieve.engine.diagram import Window, check_point, diagram
+from electrosieve.engine.diagram import Window, diagram, stable_at
 from electrosieve.engine.limits import DEFAULT_ACTIVITY, check_temperature
 from electrosieve.engine.errors import ElectrosieveError, InputError
-from electrosieve.engine.scales import canonical_scale, convert, needs_ph, to_she
-
+from electrosieve.engine.scales import canonical_scale, convert, needs_ph
 from electrosieve.engine.screen import make_scenario, screen
 
 from . import payloads
@@ -139,10 +138,7 @@ def cmd_point(args) -> None:
     ph = _number(args.ph, "--ph")
     potential = _number(args.potential, "--potential")
     result = diagram(args.element, _number(args.activity, "--activity"), temperature, _window(args), catalog=catalog)
-    scale = canonical_scale(catalog.scales, args.scale)
-    potential_she = to_she(catalog.scales, potential, scale, ph, temperature + 273.15)
-    check_point(result.window, ph, potential_she)
-    payload = payloads.point_payload(result, ph, potential, potential_she, scale)
+    payload = payloads.point_payload(stable_at(result, catalog.scales, ph, potential, args.scale))
     _emit(args, payload, lambda p: print(
         f"{p['element']} at pH {p['ph']:g}, {p['potential']:g} V vs {p['scale']} ({p['potential_she']:.3f} V vs SHE): "
         f"{p['formula']} ({p['phase']}) - {p['region']}"))

@@ -17,6 +17,7 @@ from .errors import InputError
 from .geometry import stack
 from .limits import DEFAULT_ACTIVITY, check_activity, check_number, check_temperature
 from .planes import Planes, build_planes
+from .scales import canonical_scale, to_she
 from .species import Species
 from .thermo import formation_gibbs
 from .water import WaterLines, water_lines
@@ -106,3 +107,34 @@ def check_point(window: Window, ph, potential) -> tuple[float, float]:
     potential = check_number(potential, "potential", window.e_min, window.e_max, " V vs SHE (the diagram's window)")
     return ph, potential
 
+
+
+@dataclass(frozen=True)
+class PointResult:
+    """What is most stable at one point of an element's diagram."""
+
+    diagram: Diagram
+    species: Species
+    ph: float
+    potential: float
+    """The potential as given [V on ``scale``]."""
+    scale: str
+    potential_she: float
+    """The same potential [V vs SHE]."""
+
+
+def stable_at(diagram: Diagram, scales: dict, ph, potential, scale: str = "SHE") -> PointResult:
+    """The stable species of ``diagram`` at ``ph`` and ``potential`` [V on ``scale``], the point checked to lie
+    within the diagram's limits once converted to the SHE.
+
+    >>> from electrosieve.engine.catalog import default_catalog
+    >>> stable_at(diagram("Zn"), default_catalog().scales, 3.0, -1.2).species.name
+    'Zn'
+    """
+    scale_id = canonical_scale(scales, scale)
+    ph = check_number(ph, "ph")
+    potential = check_number(potential, "potential")
+    potential_she = to_she(scales, potential, scale_id, ph, diagram.temperature_c + ZERO_CELSIUS)
+    ph, potential_she = check_point(diagram.window, ph, potential_she)
+    return PointResult(diagram=diagram, species=diagram.stable_species_at(ph, potential_she), ph=ph,
+                       potential=potential, scale=scale_id, potential_she=potential_she)

@@ -203,7 +203,7 @@ def region_fractions(pieces: list[Piece]) -> dict[str, float]:
     fractions = {region: 0.0 for region in SEVERITY}
     for piece in pieces:
         fractions[piece.region] += piece.fraction
-    return {region: round(value, 12) for region, value in fractions.items()}
+    return fractions
 
 
 def largest_gap(gaps: list[float], window: OperatingWindow) -> tuple[float, tuple[float, float]]:

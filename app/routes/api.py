@@ -4,11 +4,9 @@ from fastapi import APIRouter, Depends, Path, Query
 from fastapi.responses import Response
 
 from electrosieve.engine.catalog import Catalog
-from electrosieve.engine.constants import ZERO_CELSIUS
-from electrosieve.engine.diagram import check_point, diagram
+from electrosieve.engine.diagram import diagram, stable_at
 from electrosieve.engine.limits import ACTIVITY_RANGE, DEFAULT_ACTIVITY, TEMPERATURE_RANGE_C
 from electrosieve.engine.errors import ElectrosieveError
-from electrosieve.engine.scales import canonical_scale, to_she
 
 from .. import payloads, urls
 from ..models import (DiagramOut, MaterialOut, PLOT, POTENTIAL_LIMIT, PointOut, ScaleOut, ScenarioIn, ScreenResult,
@@ -72,12 +70,10 @@ def point_json(element: str = ElementPath,
                activity: float = Activity, temperature: float = Temperature, catalog: Catalog = Depends(get_catalog)):
     result = _diagram(element, activity, temperature, catalog)
     try:
-        scale_id = canonical_scale(catalog.scales, scale)
-        potential_she = to_she(catalog.scales, potential, scale_id, ph, temperature + ZERO_CELSIUS)
-        check_point(result.window, ph, potential_she)
+        point = stable_at(result, catalog.scales, ph, potential, scale)
     except ElectrosieveError as error:
         raise Unprocessable([engine_error(error, "query")]) from None
-    return payloads.point_payload(result, ph, potential, potential_she, scale_id)
+    return payloads.point_payload(point)
 
 
 @router.post("/screen", response_model=ScreenResult, responses=BODY_RESPONSES,
