@@ -7,7 +7,6 @@ readable line on stderr and a non-zero exit (2 for bad input), never a traceback
 
 import argparse
 import json
-import math
 import sys
 from pathlib import Path
 
@@ -16,9 +15,10 @@ from electrosieve.engine.diagram import Window, diagram, stable_at
 from electrosieve.engine.limits import DEFAULT_ACTIVITY, check_temperature
 from electrosieve.engine.errors import ElectrosieveError, InputError
 from electrosieve.engine.scales import canonical_scale, convert, needs_ph
-from electrosieve.engine.screen import make_scenario, screen
+from electrosieve.engine.screen import screen
 
 from . import payloads
+from .viewstate import cli_scenario, parse_number, parse_range
 
 EXIT_BAD_INPUT = 2
 EXIT_INTERNAL = 1
@@ -31,30 +31,6 @@ class UsageError(Exception):
 class _Parser(argparse.ArgumentParser):
     def error(self, message):  # argparse calls this on bad usage
         raise UsageError(f"{self.prog}: {message}")
-
-
-def parse_range(text: str, field: str) -> tuple[float, float]:
-    """``"A:B"`` → (A, B); ``"A"`` → (A, A). Negative numbers work: ``--potential=-0.5:-0.2``."""
-    parts = str(text).split(":")
-    if len(parts) not in (1, 2) or not all(p.strip() for p in parts):
-        raise InputError(f"{field} must be a number or a range A:B (given {text!r})", field=field)
-    try:
-        values = [float(p) for p in parts]
-    except ValueError:
-        raise InputError(f"{field} must be a number or a range A:B of numbers (given {text!r})", field=field) from None
-    low, high = values[0], values[-1]
-    return low, high
-
-
-def _number(text: str, field: str) -> float:
-    """``text`` as a finite number, or an error naming ``field``."""
-    try:
-        value = float(text)
-    except (TypeError, ValueError):
-        raise InputError(f"{field} must be a number (given {text!r})", field=field) from None
-    if not math.isfinite(value):
-        raise InputError(f"{field} must be a finite number (given {text!r})", field=field)
-    return value
 
 
 def _whole_number(text: str, field: str, low: int, high: int) -> int:
@@ -93,7 +69,7 @@ def _console():
 
 def cmd_diagram(args) -> None:
     catalog = _catalog(args)
-    result = diagram(args.element, _number(args.activity, "--activity"), check_temperature(_number(args.temperature, "--temperature")),
+    result = diagram(args.element, parse_number(args.activity, "--activity"), check_temperature(parse_number(args.temperature, "--temperature")),
                      _window(args), catalog=catalog)
     payload = payloads.diagram_payload(result, catalog)
     if args.out:
@@ -134,10 +110,10 @@ def _print_diagram(payload: dict) -> None:
 
 def cmd_point(args) -> None:
     catalog = _catalog(args)
-    temperature = check_temperature(_number(args.temperature, "--temperature"))
-    ph = _number(args.ph, "--ph")
-    potential = _number(args.potential, "--potential")
-    result = diagram(args.element, _number(args.activity, "--activity"), temperature, _window(args), catalog=catalog)
+    temperature = check_temperature(parse_number(args.temperature, "--temperature"))
+    ph = parse_number(args.ph, "--ph")
+    potential = parse_number(args.potential, "--potential")
+    result = diagram(args.element, parse_number(args.activity, "--activity"), temperature, _window(args), catalog=catalog)
     payload = payloads.point_payload(stable_at(result, catalog.scales, ph, potential, args.scale))
     _emit(args, payload, lambda p: print(
         f"{p['element']} at pH {p['ph']:g}, {p['potential']:g} V vs {p['scale']} ({p['potential_she']:.3f} V vs SHE): "
@@ -146,11 +122,11 @@ def cmd_point(args) -> None:
 
 def cmd_convert(args) -> None:
     catalog = _catalog(args)
-    temperature = check_temperature(_number(args.temperature, "--temperature"))
-    value = _number(args.value, "VALUE")
+    temperature = check_temperature(parse_number(args.temperature, "--temperature"))
+    value = parse_number(args.value, "VALUE")
     source = canonical_scale(catalog.scales, args.source)
     target = canonical_scale(catalog.scales, args.target)
-    ph = None if args.ph is None else _number(args.ph, "--ph")
+    ph = None if args.ph is None else parse_number(args.ph, "--ph")
     if ph is None and (needs_ph(catalog.scales, source) or needs_ph(catalog.scales, target)):
         raise InputError("converting to or from the RHE needs --ph", field="--ph")
     result = convert(catalog.scales, value, source, target, ph, temperature + 273.15)
@@ -177,37 +153,6 @@ def cmd_scales(args) -> None:
     _emit(args, payload, human)
 
 
-def _list(text: str | None) -> list[str] | None:
-    return None if text is None else [part.strip() for part in text.split(",") if part.strip()]
-
-
-def _weights(text: str | None) -> dict | None:
-    if text is None:
-        return None
-    weights = {}
-    for part in text.split(","):
-        key, _, value = part.partition("=")
-        if not value:
-            raise InputError(f"--weights must look like unacceptable=1,price=0.2 (given {text!r})", field="--weights")
-        weights[key.strip()] = _number(value, f"--weights {key.strip()}")
-    return weights
-
-
-def scenario_from_args(args, catalog: Catalog):
-    """The screening scenario described by the command line."""
-    ph = parse_range(args.ph, "--ph")
-    potential = parse_range(args.potential, "--potential")
-    accept = _list(args.accept)
-    if accept is not None and not accept:
-        raise InputError("--accept must name at least one region", field="--accept")
-    return make_scenario(
-        ph=list(ph), potential=list(potential), scale=args.scale, activity=_number(args.activity, "--activity"),
-        temperature=_number(args.temperature, "--temperature"), role=args.role, accept=accept,
-        materials=_list(args.materials), family=args.family, rank_by=_list(args.rank_by), weights=_weights(args.weights),
-        catalog=catalog,
-    )
-
-
 def write_csv(result: dict, stream) -> None:
     import csv
 
@@ -220,7 +165,11 @@ def cmd_screen(args) -> None:
     catalog = _catalog(args)
     if args.json and args.csv:
         raise InputError("choose one of --json and --csv", field="--csv")
-    result = payloads.screen_payload(screen(scenario_from_args(args, catalog), catalog))
+    scenario = cli_scenario(ph=args.ph, potential=args.potential, scale=args.scale, activity=args.activity,
+                            temperature=args.temperature, role=args.role, accept=args.accept,
+                            materials=args.materials, family=args.family, rank_by=args.rank_by,
+                            weights=args.weights, catalog=catalog)
+    result = payloads.screen_payload(screen(scenario, catalog))
     if args.csv:
         write_csv(result, sys.stdout)
         return

@@ -10,7 +10,7 @@ Paths:
 | one material | ``/materials/{id}`` | ``/materials/{id}.json`` | |
 | shortlist | ``/s/{id}`` | ``/s/{id}.json`` (= ``/api/v1/shortlists/{id}``) | ``/s/{id}.csv`` |
 
->>> from electrosieve.app.models import ViewQuery
+>>> from electrosieve.app.viewstate import ViewQuery
 >>> screen_page(ViewQuery(ph_low="7", potential_low="0"))
 '/?ph_low=7&ph_high=&potential_low=0&potential_high=&scale=SHE&temperature=25&activity=1e-6&role=anode'
 >>> material_page("Pt", activity=1e-4)

@@ -11,7 +11,7 @@ from markupsafe import escape
 from electrosieve.app.cautions import CAUTIONS
 from electrosieve.app.figures import rich_formula
 from electrosieve.app.payloads import CSV_COLUMNS
-from electrosieve.app.models import ViewQuery
+from electrosieve.app.viewstate import ViewQuery
 from electrosieve.app.payloads import diagram_payload, sources_payload
 from electrosieve.app.storage import save_shortlist
 from electrosieve.engine.catalog import default_catalog

@@ -16,12 +16,13 @@ from starlette.templating import Jinja2Templates
 
 from electrosieve.engine.catalog import Catalog, default_catalog, load_catalog
 from electrosieve.engine.errors import ElectrosieveError
-from electrosieve.engine.screen import make_scenario, screen
+from electrosieve.engine.screen import screen
 
 from .. import urls
 from ..cautions import CAUTIONS
 from ..payloads import CSV_COLUMNS, csv_rows, screen_payload
-from ..models import ENGINE_FIELD_TO_PARAM, ErrorBody, FieldError, ScenarioIn, ViewQuery
+from ..models import ErrorBody, FieldError, ScenarioIn
+from ..viewstate import ENGINE_FIELD_TO_PARAM, ViewQuery, checked_scenario
 from ..settings import Settings
 from ..storage import open_storage
 
@@ -156,7 +157,7 @@ def run_screen(scenario: ScenarioIn, catalog: Catalog, *, where: str | list = "b
         raise Unprocessable([FieldError(loc=[*([where] if isinstance(where, str) else where), "materials"],
                                         msg="materials: the catalog has no materials (data/materials.toml is missing)")])
     try:
-        checked = make_scenario(**scenario.engine_arguments(), catalog=catalog)
+        checked = checked_scenario(scenario, catalog)
         return screen_payload(screen(checked, catalog))
     except ElectrosieveError as error:
         raise Unprocessable([engine_error(error, where, rename)]) from None

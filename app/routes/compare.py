@@ -12,7 +12,8 @@ from electrosieve.engine.screen import material_id
 from .. import urls
 from ..cautions import CAUTIONS
 from ..figures import figure_dict
-from ..models import CompareDiagram, ComparePage, ENGINE_FIELD_TO_PARAM, FieldError, ViewQuery
+from ..models import CompareDiagram, ComparePage, FieldError
+from ..viewstate import ENGINE_FIELD_TO_PARAM, ViewQuery
 from ..payloads import citation, diagram_payload, sources_payload
 from .common import ERROR_RESPONSES, HTML_RESPONSES, Unprocessable, engine_error, get_catalog, render, run_screen, view_query
 from .screen import form_choices

@@ -8,7 +8,8 @@ from electrosieve.engine.ranking import RANK_KEYS
 
 from .. import urls
 from ..cautions import CAUTIONS
-from ..models import Choice, ScreenLinks, ScreenPage, ViewQuery
+from ..models import Choice, ScreenLinks, ScreenPage
+from ..viewstate import ViewQuery
 from ..payloads import citation
 from .common import (CSV_RESPONSES, ERROR_RESPONSES, HTML_RESPONSES, Unprocessable, csv_response, get_catalog, render,
                      screen_view, view_query)

@@ -14,8 +14,8 @@ from pydantic import ValidationError
 from electrosieve.engine.catalog import Catalog
 
 from .. import urls
-from ..models import (FieldError, RankCheck, ScenarioIn, ShortlistCreate, ShortlistLinks, ShortlistPublic, ViewQuery,
-                      field_errors)
+from ..models import FieldError, RankCheck, ScenarioIn, ShortlistCreate, ShortlistLinks, ShortlistPublic
+from ..viewstate import ViewQuery, field_errors
 from ..storage import ID_PATTERN, StoredShortlist, load_shortlist, save_shortlist
 from .common import (BODY_RESPONSES, CSV_RESPONSES, ERROR_RESPONSES, HTML_RESPONSES, Unprocessable, csv_response, get_catalog,
                      get_storage, not_found, render, run_screen)
