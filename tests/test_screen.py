@@ -8,7 +8,6 @@ from electrosieve.engine.catalog import default_catalog
 from electrosieve.engine.constants import KJ_PER_EV, nernst_slope
 from electrosieve.engine.errors import InputError
 from electrosieve.engine.screen import make_scenario, screen
-from electrosieve.app.payloads import scenario_payload
 
 CATALOG = default_catalog()
 
@@ -124,13 +123,6 @@ def test_hazard_flags_chromate():
 def test_hydrogen_evolution_flagged_below_the_h2_line():
     row = rows(run(ph=0, potential=-0.3, materials=["Pt"], role="cathode"))["Pt"]
     assert any(h.species == "H2" and "flammable" in h.note for h in row.hazards)
-
-
-def test_scenario_echo_round_trips():
-    scenario = make_scenario(ph=[2, 3], potential=-0.1, scale="sce", role="Cathode", materials=["Cu"])
-    echo = scenario_payload(scenario)
-    assert echo["scale"] == "SCE" and echo["role"] == "cathode" and echo["potential"] == -0.1
-    assert scenario_payload(make_scenario(**echo)) == echo
 
 
 @pytest.mark.parametrize("kwargs, field, message", [
