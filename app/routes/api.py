@@ -11,8 +11,10 @@ from electrosieve.engine.errors import ElectrosieveError
 from .. import payloads, urls
 from ..models import (DiagramOut, MaterialOut, PLOT, POTENTIAL_LIMIT, PointOut, ScaleOut, ScenarioIn, ScreenResult,
                       ShortlistCreate, ShortlistCreated, ShortlistPublic, SourcesOut)
-from .common import BODY_RESPONSES, ERROR_RESPONSES, Unprocessable, engine_error, get_catalog, get_storage, run_screen
-from .shortlists import create_shortlist, find_shortlist, shortlist_public
+from ..errors import Unprocessable, engine_error
+from ..pages import screen_result
+from ..shortlists import create_shortlist, find_shortlist, shortlist_public
+from .common import BODY_RESPONSES, ERROR_RESPONSES, get_catalog, get_storage
 
 router = APIRouter(prefix=urls.API, tags=["api"])
 
@@ -79,7 +81,7 @@ def point_json(element: str = ElementPath,
 @router.post("/screen", response_model=ScreenResult, responses=BODY_RESPONSES,
              summary="Rank candidates over an operating window (as `electrosieve screen --json`)")
 def screen_json(scenario: ScenarioIn, catalog: Catalog = Depends(get_catalog)):
-    return run_screen(scenario, catalog)
+    return screen_result(scenario, catalog)
 
 
 @router.post("/shortlists", response_model=ShortlistCreated, status_code=201, responses=BODY_RESPONSES,

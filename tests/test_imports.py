@@ -1,4 +1,5 @@
-"""The engine is a library: its import graph has no cycle, no hidden imports inside functions, no web imports.
+"""The import graph is a tree you can draw: the engine has no cycle, no hidden imports inside functions and no
+web imports; route modules never import one another.
 
 The imports are read from the source with ``ast`` (so an import inside a function counts too), never by
 importing the modules.
@@ -10,6 +11,7 @@ from pathlib import Path
 import electrosieve.engine
 
 ENGINE = Path(electrosieve.engine.__file__).resolve().parent
+"""The engine folder (its parent holds app/ too: the folders stay at the repository's top)."""
 MODULES = {path.stem: path for path in sorted(ENGINE.glob("*.py")) if path.stem != "__init__"}
 
 FORBIDDEN = ("electrosieve.app", "fastapi", "starlette", "plotly", "jinja2", "uvicorn", "sqlalchemy")
@@ -93,3 +95,20 @@ def test_the_engine_imports_at_the_top_of_each_module():
 def test_the_engine_declares_its_public_names():
     missing = [name for name in electrosieve.engine.__all__ if not hasattr(electrosieve.engine, name)]
     assert electrosieve.engine.__all__ and not missing, missing
+
+
+ROUTES = ENGINE.parent / "app" / "routes"
+ROUTE_HELPERS = {"common", "http"}
+"""What every router shares (the running app's state, templates, HTTP plumbing): not routes themselves."""
+
+
+def test_route_modules_do_not_import_each_other():
+    routes = {path.stem for path in ROUTES.glob("*.py")} - ROUTE_HELPERS - {"__init__"}
+    crossing = []
+    for name in sorted(routes):
+        tree = ast.parse((ROUTES / f"{name}.py").read_text(encoding="utf-8"))
+        for node in ast.walk(tree):
+            if isinstance(node, ast.ImportFrom) and node.level == 1:
+                imported = {node.module} if node.module else {alias.name for alias in node.names}
+                crossing += [f"routes/{name}.py imports routes/{other}.py" for other in imported & routes]
+    assert routes and not crossing, crossing
