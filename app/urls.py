@@ -44,6 +44,11 @@ def screen_csv(view=None) -> str:
     return with_query("/screen.csv", _view_pairs(view))
 
 
+def screen_ranking(view=None) -> str:
+    """The screen page's ranked pieces alone, as HTML the page's script swaps in."""
+    return with_query("/screen/ranking", _view_pairs(view))
+
+
 def _compare_pairs(view, materials, axis) -> list[tuple[str, str]]:
     pairs = _view_pairs(view)
     pairs += [("compare", m) for m in (materials if materials is not None else (view.compare if view else []))]

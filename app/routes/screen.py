@@ -24,6 +24,13 @@ def screen_html(request: Request, view: ViewQuery = Depends(view_query), catalog
                   status_code=422 if page.errors else 200)
 
 
+@router.get("/screen/ranking", response_class=HTMLResponse, response_model=None, responses=HTML_RESPONSES,
+            summary="The screen page's ranked rows, rule, notes and errors as an HTML fragment (what its script swaps in)")
+def screen_ranking(request: Request, view: ViewQuery = Depends(view_query), catalog: Catalog = Depends(get_catalog)):
+    page = screen_page_data(view, catalog)
+    return render(request, "screen_ranking.html", {"page": page}, status_code=422 if page.errors else 200)
+
+
 @router.get("/screen.json", response_model=ScreenPage, responses=ERROR_RESPONSES,
             summary="Screen page data (JSON twin of /)")
 def screen_json(view: ViewQuery = Depends(view_query), catalog: Catalog = Depends(get_catalog)) -> ScreenPage:
