@@ -69,7 +69,8 @@ def _console():
 
 def cmd_diagram(args) -> None:
     catalog = _catalog(args)
-    result = diagram(args.element, parse_number(args.activity, "--activity"), check_temperature(parse_number(args.temperature, "--temperature")),
+    temperature = check_temperature(parse_number(args.temperature, "--temperature"))
+    result = diagram(args.element, parse_number(args.activity, "--activity"), temperature,
                      _window(args), catalog=catalog)
     payload = payloads.diagram_payload(result, catalog)
     if args.out:

@@ -110,10 +110,6 @@ def shortlist_form() -> str:
     return "/shortlists"
 
 
-def api_screen() -> str:
-    return f"{API}/screen"
-
-
 def api_shortlists() -> str:
     return f"{API}/shortlists"
 

@@ -148,7 +148,7 @@ def load_species_file(path: Path) -> SpeciesFile:
 
 def _to_system(path: Path, parsed: SpeciesFile) -> ElementSystem:
     species = []
-    for index, row in enumerate(parsed.species):
+    for row in parsed.species:
         values = row.model_dump()
         if values["from_memory"] is None:
             values["from_memory"] = parsed.from_memory

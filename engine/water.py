@@ -86,8 +86,9 @@ def water_lines_at(temperature_k: float = T_STANDARD, catalog=None) -> WaterLine
 def conditions_note(temperature_c: float) -> str:
     """The assumptions behind a result at ``temperature_c`` [°C], in words.
 
-    >>> conditions_note(120.0)
-    'At 120 °C: liquid water; H2 and O2 at 1 bar partial pressure; dissolved species at the stated activity; the liquid at its saturation pressure, 1.99 bar.'
+    >>> print(conditions_note(120.0))
+    At 120 °C: liquid water; H2 and O2 at 1 bar partial pressure; dissolved species at the stated activity;
+    the liquid at its saturation pressure, 1.99 bar.
     """
     note = f"At {temperature_c:g} °C: {CONDITIONS}"
     if temperature_c > 100.0:

@@ -8,7 +8,8 @@ import pytest
 from electrosieve.engine.catalog import builtin_data_dir, default_catalog
 from tests.utils.checksums import SPECIES_CHECKSUMS
 
-GROUP_MODULES = ("tests.test_species_core", "tests.test_species_noble", "tests.test_species_transition", "tests.test_species_post_transition")
+GROUP_MODULES = ("tests.test_species_core", "tests.test_species_noble", "tests.test_species_transition",
+                 "tests.test_species_post_transition")
 
 WITHOUT_CROSS_CHECK = {
     "Hf": "no standard potential, solubility or hydrolysis constant recalled independently of the value that "
