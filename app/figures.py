@@ -65,7 +65,7 @@ def diagram_figure(payload: dict, *, operating_window: list[list[float]] | None 
         centre_y = sum(ys[:-1]) / len(ys[:-1])
         figure.add_annotation(x=centre_x, y=centre_y, text=rich_formula(domain["formula"]), showarrow=False,
                               font={"size": 12, "color": "#1b1b1b"})
-    ph_range = payload["window"]["ph"]
+    ph_range = payload["limits"]["ph"]
     for key, name in (("hydrogen", "H2/H2O"), ("oxygen", "O2/H2O")):
         line = payload["water"][key]
         figure.add_trace(go.Scatter(
@@ -78,7 +78,7 @@ def diagram_figure(payload: dict, *, operating_window: list[list[float]] | None 
         figure.add_trace(go.Scatter(x=xs, y=ys, mode="lines+markers", line=WINDOW_STYLE, fill="toself",
                                     fillcolor=WINDOW_FILL, marker={"size": 5}, name="operating window",
                                     hoveron="points+fills", hoverinfo="name"))
-    e_range = payload["window"]["potential"]
+    e_range = payload["limits"]["potential"]
     figure.update_layout(
         title=title or f"{payload['element']}: E–pH diagram, dissolved species at {payload['activity']:g}, "
                        f"{payload['temperature_c']:g} °C",

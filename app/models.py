@@ -2,7 +2,7 @@
 
 Requests are strict: unknown fields, wrong types, booleans for numbers, NaN and
 infinities are refused with a 422 naming the field. Bounds come from the engine
-(``engine.limits``, ``engine.domains.Window``) so the API and the engine agree;
+(``engine.inputs``, ``engine.domains.PlotLimits``) so the API and the engine agree;
 the engine still makes the final checks (e.g. a potential window that leaves the
 diagram once converted to the SHE) and its errors name their field too.
 
@@ -16,15 +16,15 @@ from typing import Annotated, Literal
 from pydantic import AfterValidator, BaseModel, ConfigDict, Field, StringConstraints, WithJsonSchema
 from pydantic_core import PydanticCustomError
 
-from electrosieve.engine.limits import ACTIVITY_RANGE, DEFAULT_ACTIVITY, TEMPERATURE_RANGE_C
-from electrosieve.engine.domains import Window
+from electrosieve.engine.inputs import ACTIVITY_RANGE, DEFAULT_ACTIVITY, TEMPERATURE_RANGE_C
+from electrosieve.engine.domains import PlotLimits
 from electrosieve.engine.materials import FAMILIES
 from electrosieve.engine.ranking import DEFAULT_ORDER, RANK_KEYS
 from electrosieve.engine.screen import REGIONS, ROLES
 
 from .storage import NOTE_MAX, TITLE_MAX
 
-PLOT = Window()
+PLOT = PlotLimits()
 """The diagram window every screen uses (pH and E vs SHE limits)."""
 
 POTENTIAL_LIMIT = 5.0
@@ -202,7 +202,9 @@ class WaterOut(Out):
     neutral_ph: float = Field(description="pH of neutral water at the diagram's temperature")
 
 
-class DiagramWindow(Out):
+class DiagramLimits(Out):
+    """The diagram's plot limits: pH and potential ranges."""
+
     ph: list[float]
     potential: list[float]
     scale: str
@@ -214,7 +216,7 @@ class DiagramOut(Out):
     element: str
     activity: float
     temperature_c: float
-    window: DiagramWindow
+    limits: DiagramLimits
     domains: list[DomainOut]
     boundaries: list[BoundaryOut]
     water: WaterOut

@@ -7,7 +7,7 @@ The builders call the engine and ``app.payloads``; they know nothing of HTTP bey
 from electrosieve.engine.catalog import Catalog
 from electrosieve.engine.diagram import diagram
 from electrosieve.engine.errors import ElectrosieveError
-from electrosieve.engine.limits import DEFAULT_ACTIVITY
+from electrosieve.engine.inputs import DEFAULT_ACTIVITY
 from electrosieve.engine.ranking import RANK_KEYS
 from electrosieve.engine.scales import canonical_scale
 from electrosieve.engine.screen import screen

@@ -37,8 +37,8 @@ def diagram_payload(diagram: Diagram, catalog: Catalog) -> dict:
         "element": diagram.element,
         "activity": diagram.activity,
         "temperature_c": diagram.temperature_c,
-        "window": {"ph": [diagram.window.ph_min, diagram.window.ph_max],
-                   "potential": [diagram.window.e_min, diagram.window.e_max], "scale": "SHE"},
+        "limits": {"ph": [diagram.limits.ph_min, diagram.limits.ph_max],
+                   "potential": [diagram.limits.e_min, diagram.limits.e_max], "scale": "SHE"},
         "domains": [
             {**species_payload(d.species), "area": round(d.area, DIGITS["area"]), "polygon": _points(d.vertices)}
             for d in diagram.domains

@@ -10,12 +10,12 @@ import time
 
 from electrosieve.engine.catalog import default_catalog
 from electrosieve.engine.diagram import _cached_diagram
-from electrosieve.engine.domains import Window, boundaries, stability_domains
+from electrosieve.engine.domains import PlotLimits, boundaries, stability_domains
 from electrosieve.engine.planes import build_planes
 from electrosieve.engine.screen import VERDICTS, make_scenario, screen
 from electrosieve.engine.species import Species
 
-WINDOW = Window()
+WINDOW = PlotLimits()
 
 
 def median_ms(action, repeats: int = 30) -> float:

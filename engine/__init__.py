@@ -5,20 +5,20 @@ reached through their module (``engine.diagram.diagram``, ``engine.screen.screen
 never shadowed by a function of the same name.
 """
 
-from . import (catalog, constants, diagram, domains, errors, formula, geometry, kw, limits, materials, metrics, planes,
+from . import (catalog, constants, diagram, domains, errors, formula, geometry, inputs, kw, materials, metrics, planes,
                ranking, scales, screen, species, thermo, water, window)
 from .catalog import Catalog
 from .diagram import Diagram
-from .domains import Boundary, Domain, Window
+from .domains import Boundary, Domain, PlotLimits
 from .errors import CatalogError, ElectrosieveError, InputError
 from .screen import ElementVerdict, Scenario
 from .window import OperatingWindow
 
 __all__ = [
     # modules
-    "catalog", "constants", "diagram", "domains", "errors", "formula", "geometry", "kw", "limits", "materials",
+    "catalog", "constants", "diagram", "domains", "errors", "formula", "geometry", "inputs", "kw", "materials",
     "metrics", "planes", "ranking", "scales", "screen", "species", "thermo", "water", "window",
     # typed values and errors
     "Boundary", "Catalog", "CatalogError", "Diagram", "Domain", "ElectrosieveError", "ElementVerdict", "InputError",
-    "OperatingWindow", "Scenario", "Window",
+    "OperatingWindow", "PlotLimits", "Scenario",
 ]

@@ -175,7 +175,7 @@ def load_catalog(data_dir: Path | None = None, overlay: Path | None = None) -> C
     if overlay is not None:
         overlay = Path(overlay)
         if not overlay.is_dir():
-            raise CatalogError(f"--data {overlay}: not a directory", field="data")
+            raise CatalogError(f"overlay {overlay}: not a directory", field="overlay")
     sources = _load_table(base / "sources.toml", SourceRow, "source")
     scales = _load_table(base / "scales.toml", ScaleRow, "scale")
     species_files = {path.name: path for path in sorted((base / "species").glob("*.toml"))}
@@ -185,7 +185,7 @@ def load_catalog(data_dir: Path | None = None, overlay: Path | None = None) -> C
             sources = {**sources, **_load_table(overlay / "sources.toml", SourceRow, "source")}
         extra = [path for path in extra if path.name not in ("sources.toml", "scales.toml", "materials.toml")]
         if not extra:
-            raise CatalogError(f"--data {overlay}: no species files (*.toml) found", field="data")
+            raise CatalogError(f"overlay {overlay}: no species files (*.toml) found", field="overlay")
         for path in extra:
             species_files[path.name] = path
     systems: dict[str, ElementSystem] = {}

@@ -217,9 +217,9 @@ def margin(overlay: Overlay, diagram: Diagram, window: OperatingWindow, accept: 
     """(signed margin [V], capped): shift along E to first meet an unacceptable domain (≥ 0),
     or minus the shift needed to leave the unacceptable ones (< 0).
 
-    ``capped`` is True when the answer is limited by the diagram's own potential window.
+    ``capped`` is True when the answer is limited by the diagram's own potential limits.
     """
-    plot = diagram.window
+    plot = diagram.limits
     low_cap = plot.e_min - window.vertices[:, 1].min()
     high_cap = plot.e_max - window.vertices[:, 1].max()
     intervals = sorted((low, high) for region, low, high in overlay.reach if region not in accept)

@@ -14,9 +14,9 @@ from threading import Lock
 
 from .catalog import Catalog, default_catalog
 from .diagram import Diagram, diagram
-from .domains import Window
+from .domains import PlotLimits
 from .errors import InputError
-from .limits import DEFAULT_ACTIVITY, check_activity, check_temperature
+from .inputs import DEFAULT_ACTIVITY, check_activity, check_temperature
 from .materials import FAMILIES, Material
 from .metrics import Piece, largest_gap, margin, overlays, region_fractions
 from .ranking import DEFAULT_ORDER, RANK_KEYS, check_order, check_weights, rank, reason
@@ -81,7 +81,7 @@ def make_scenario(*, ph, potential, scale: str = "SHE", activity=DEFAULT_ACTIVIT
             raise InputError("materials is empty: leave it out to screen every material", field="materials")
         ids = tuple(dict.fromkeys(material_id(catalog, m) for m in materials))
     temperature = check_temperature(temperature)
-    window = operating_window(catalog.scales, ph, potential, scale, temperature, Window())
+    window = operating_window(catalog.scales, ph, potential, scale, temperature, PlotLimits())
     return Scenario(
         ph=window.ph, potential=window.potential, window=window, scale=window.scale, activity=check_activity(activity),
         temperature=temperature, role=role, accept=accept_tuple, materials=ids, family=family,
@@ -243,7 +243,7 @@ class VerdictStore:
 
     The same question comes back often (the page, its CSV, the saved shortlist, every opening of a
     shared link), so a repeated screen reuses every verdict. The catalog is keyed by identity: a
-    ``--data`` overlay never shares verdicts with the built-in catalog.
+    catalog overlay never shares verdicts with the built-in catalog.
     """
 
     def __init__(self, size: int):

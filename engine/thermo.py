@@ -49,7 +49,7 @@ from .datafiles import read_toml
 from .catalog import builtin_data_dir, default_catalog
 from .errors import CatalogError, InputError
 from .kw import pkw
-from .limits import TEMPERATURE_RANGE_C
+from .inputs import TEMPERATURE_RANGE_C
 from .species import Species
 
 CRISS_COBBLE_FILE = "criss_cobble.toml"

@@ -12,7 +12,7 @@ from hypothesis import strategies as st
 from electrosieve.engine.catalog import default_catalog
 from electrosieve.engine.constants import thermal_voltage
 from electrosieve.engine.diagram import diagram
-from electrosieve.engine.domains import SEVERITY, TIE, Window
+from electrosieve.engine.domains import SEVERITY, TIE, PlotLimits
 from electrosieve.engine.metrics import largest_gap, margin, overlays, region_fractions
 from electrosieve.engine.window import operating_window
 
@@ -21,7 +21,7 @@ ELEMENTS = sorted(CATALOG.systems)
 
 
 def _window(ph, potential, scale="SHE"):
-    return operating_window(CATALOG.scales, ph, potential, scale, 25.0, Window())
+    return operating_window(CATALOG.scales, ph, potential, scale, 25.0, PlotLimits())
 
 
 def _grid(window, n=120, edges=False):

@@ -5,7 +5,7 @@ from fastapi.responses import Response
 
 from electrosieve.engine.catalog import Catalog
 from electrosieve.engine.diagram import diagram, stable_at
-from electrosieve.engine.limits import ACTIVITY_RANGE, DEFAULT_ACTIVITY, TEMPERATURE_RANGE_C
+from electrosieve.engine.inputs import ACTIVITY_RANGE, DEFAULT_ACTIVITY, TEMPERATURE_RANGE_C
 from electrosieve.engine.errors import ElectrosieveError
 
 from .. import payloads, urls
