@@ -13,7 +13,7 @@ from electrosieve.engine.catalog import Catalog
 
 from . import urls
 from .errors import Unprocessable, not_found
-from .models import FieldError, RankCheck, ScenarioIn, ShortlistCreate, ShortlistLinks, ShortlistPublic
+from .models import FieldError, RankCheck, ScenarioIn, ShortlistCreate, ShortlistLinks, ShortlistPublic, ShortlistRow
 from .pages import result_citations, screen_result
 from .storage import ID_PATTERN, StoredShortlist, load_shortlist, save_shortlist
 from .viewstate import ViewQuery
@@ -60,7 +60,10 @@ def rank_check(stored: StoredShortlist, catalog: Catalog) -> RankCheck:
 def shortlist_public(stored: StoredShortlist, catalog: Catalog) -> ShortlistPublic:
     """The one data object behind /s/{id}, /s/{id}.json and /api/v1/shortlists/{id}."""
     result = stored.result
-    rows = [{**row, "note": stored.notes.get(row["material"], "")} for row in result["results"]]
+    # a row saved by an older release may carry a field since retired: the contract shows today's fields only
+    fields = ShortlistRow.model_fields
+    rows = [{**{key: value for key, value in row.items() if key in fields}, "note": stored.notes.get(row["material"], "")}
+            for row in result["results"]]
     links = ShortlistLinks(page=urls.shortlist_page(stored.id), json_twin=urls.shortlist_json(stored.id),
                            csv=urls.shortlist_csv(stored.id),
                            start_from_this=urls.screen_page(ViewQuery.from_scenario(stored.scenario)))

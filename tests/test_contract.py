@@ -141,3 +141,16 @@ def test_the_scenario_echo_is_a_body_the_api_accepts_again():
     echo = scenario_payload(scenario)
     assert echo["scale"] == "SCE" and echo["role"] == "cathode" and echo["potential"] == -0.1
     assert scenario_payload(make_scenario(**echo)) == echo
+
+
+def test_a_shortlist_saved_with_a_since_retired_row_field_still_reads(client, spec):
+    from electrosieve.app.settings import Settings
+    from electrosieve.app.storage import open_storage, save_shortlist
+
+    result = client.post("/api/v1/screen", json=SCENARIO).json()
+    result["results"][0]["retired_field"] = 1.0  # as an older release might have stored it (test data)
+    storage = open_storage(url=Settings(data_dir=client.app.state.electrosieve.settings.data_dir).storage_url)
+    stored = save_shortlist(engine=storage, title="older", scenario=result["scenario"], result=result, notes={})
+    body = client.get(f"/api/v1/shortlists/{stored.id}")
+    assert body.status_code == 200
+    assert problems(body.json(), declared(spec, "/api/v1/shortlists/{shortlist_id}"), spec) == []
