@@ -7,7 +7,7 @@ STAMP_TEST := $(VENV)/.installed-test
 HOST ?= 127.0.0.1
 PORT ?= 8000
 
-.PHONY: serve test test-deep bench browser screenshots clean
+.PHONY: serve test test-fast test-deep lint bench browser screenshots clean
 
 $(BIN)/python:
 	$(PYTHON) -m venv $(VENV)
@@ -29,6 +29,13 @@ browser:
 
 test: $(STAMP_TEST) browser
 	$(BIN)/python -m pytest
+
+# the engine and API tests alone (no browser, PostgreSQL, real servers or fuzzing): under a minute
+test-fast: $(STAMP_TEST)
+	$(BIN)/python -m pytest -q -m "not browser and not postgres and not slow"
+
+lint: $(STAMP_TEST)
+	$(BIN)/ruff check .
 
 # random property-test examples, many more of them (the derandomised "ci" profile is the default)
 test-deep: $(STAMP_TEST) browser

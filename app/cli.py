@@ -1,24 +1,24 @@
 """The ``electrosieve`` command line: diagrams, point queries, scale conversion, catalog listings, screening, serving.
 
-Every command accepts ``--json`` for machine-readable output and ``--data DIR``
+Every command accepts ``--json`` for machine-readable output and ``--overlay DIR``
 to lay a user's own species files over the built-in catalog. Errors are one
 readable line on stderr and a non-zero exit (2 for bad input), never a traceback.
 """
 
 import argparse
 import json
-import math
 import sys
 from pathlib import Path
 
 from electrosieve.engine.catalog import Catalog, default_catalog, load_catalog
-from electrosieve.engine.diagram import DEFAULT_ACTIVITY, Window, check_point, check_temperature, diagram
+from electrosieve.engine.diagram import PlotLimits, diagram, stable_at
+from electrosieve.engine.inputs import DEFAULT_ACTIVITY, check_temperature
 from electrosieve.engine.errors import ElectrosieveError, InputError
-from electrosieve.engine.scales import canonical_scale, convert, needs_ph, to_she
-
-from electrosieve.engine.screen import make_scenario, screen
+from electrosieve.engine.scales import canonical_scale, convert, needs_ph
+from electrosieve.engine.screen import screen
 
 from . import payloads
+from .viewstate import cli_scenario, deprecated, parse_number, parse_range
 
 EXIT_BAD_INPUT = 2
 EXIT_INTERNAL = 1
@@ -33,30 +33,6 @@ class _Parser(argparse.ArgumentParser):
         raise UsageError(f"{self.prog}: {message}")
 
 
-def parse_range(text: str, field: str) -> tuple[float, float]:
-    """``"A:B"`` → (A, B); ``"A"`` → (A, A). Negative numbers work: ``--potential=-0.5:-0.2``."""
-    parts = str(text).split(":")
-    if len(parts) not in (1, 2) or not all(p.strip() for p in parts):
-        raise InputError(f"{field} must be a number or a range A:B (given {text!r})", field=field)
-    try:
-        values = [float(p) for p in parts]
-    except ValueError:
-        raise InputError(f"{field} must be a number or a range A:B of numbers (given {text!r})", field=field) from None
-    low, high = values[0], values[-1]
-    return low, high
-
-
-def _number(text: str, field: str) -> float:
-    """``text`` as a finite number, or an error naming ``field``."""
-    try:
-        value = float(text)
-    except (TypeError, ValueError):
-        raise InputError(f"{field} must be a number (given {text!r})", field=field) from None
-    if not math.isfinite(value):
-        raise InputError(f"{field} must be a finite number (given {text!r})", field=field)
-    return value
-
-
 def _whole_number(text: str, field: str, low: int, high: int) -> int:
     """``text`` as a whole number within [low, high], or an error naming ``field``."""
     try:
@@ -68,14 +44,26 @@ def _whole_number(text: str, field: str, low: int, high: int) -> int:
     return value
 
 
+class _Renamed(argparse.Action):
+    """An option's old spelling: still read for one release, with a warning on stderr naming the new one."""
+
+    def __init__(self, option_strings, dest, new: str = "", **kwargs):
+        self.new = new
+        super().__init__(option_strings, dest, **{**kwargs, "help": argparse.SUPPRESS})
+
+    def __call__(self, parser, namespace, values, option_string=None):
+        deprecated(option_string, self.new)
+        setattr(namespace, self.dest, values)
+
+
 def _catalog(args) -> Catalog:
-    return load_catalog(overlay=Path(args.data)) if getattr(args, "data", None) else default_catalog()
+    return load_catalog(overlay=Path(args.overlay)) if getattr(args, "overlay", None) else default_catalog()
 
 
-def _window(args) -> Window:
-    ph = parse_range(args.window_ph, "--window-ph")
-    e = parse_range(args.window_potential, "--window-potential")
-    return Window(ph_min=ph[0], ph_max=ph[1], e_min=e[0], e_max=e[1])
+def _limits(args) -> PlotLimits:
+    ph = parse_range(args.ph_limits, "--ph-limits")
+    e = parse_range(args.potential_limits, "--potential-limits")
+    return PlotLimits(ph_min=ph[0], ph_max=ph[1], e_min=e[0], e_max=e[1])
 
 
 def _emit(args, payload, human) -> None:
@@ -93,8 +81,9 @@ def _console():
 
 def cmd_diagram(args) -> None:
     catalog = _catalog(args)
-    result = diagram(args.element, _number(args.activity, "--activity"), check_temperature(_number(args.temperature, "--temperature")),
-                     _window(args), catalog=catalog)
+    temperature = check_temperature(parse_number(args.temperature, "--temperature"))
+    result = diagram(args.element, parse_number(args.activity, "--activity"), temperature,
+                     _limits(args), catalog=catalog)
     payload = payloads.diagram_payload(result, catalog)
     if args.out:
         from .figures import diagram_figure, write_figure
@@ -134,14 +123,11 @@ def _print_diagram(payload: dict) -> None:
 
 def cmd_point(args) -> None:
     catalog = _catalog(args)
-    temperature = check_temperature(_number(args.temperature, "--temperature"))
-    ph = _number(args.ph, "--ph")
-    potential = _number(args.potential, "--potential")
-    result = diagram(args.element, _number(args.activity, "--activity"), temperature, _window(args), catalog=catalog)
-    scale = canonical_scale(catalog.scales, args.scale)
-    potential_she = to_she(catalog.scales, potential, scale, ph, temperature + 273.15)
-    check_point(result.window, ph, potential_she)
-    payload = payloads.point_payload(result, ph, potential, potential_she, scale)
+    temperature = check_temperature(parse_number(args.temperature, "--temperature"))
+    ph = parse_number(args.ph, "--ph")
+    potential = parse_number(args.potential, "--potential")
+    result = diagram(args.element, parse_number(args.activity, "--activity"), temperature, _limits(args), catalog=catalog)
+    payload = payloads.point_payload(stable_at(result, catalog.scales, ph, potential, args.scale))
     _emit(args, payload, lambda p: print(
         f"{p['element']} at pH {p['ph']:g}, {p['potential']:g} V vs {p['scale']} ({p['potential_she']:.3f} V vs SHE): "
         f"{p['formula']} ({p['phase']}) - {p['region']}"))
@@ -149,11 +135,11 @@ def cmd_point(args) -> None:
 
 def cmd_convert(args) -> None:
     catalog = _catalog(args)
-    temperature = check_temperature(_number(args.temperature, "--temperature"))
-    value = _number(args.value, "VALUE")
+    temperature = check_temperature(parse_number(args.temperature, "--temperature"))
+    value = parse_number(args.value, "VALUE")
     source = canonical_scale(catalog.scales, args.source)
     target = canonical_scale(catalog.scales, args.target)
-    ph = None if args.ph is None else _number(args.ph, "--ph")
+    ph = None if args.ph is None else parse_number(args.ph, "--ph")
     if ph is None and (needs_ph(catalog.scales, source) or needs_ph(catalog.scales, target)):
         raise InputError("converting to or from the RHE needs --ph", field="--ph")
     result = convert(catalog.scales, value, source, target, ph, temperature + 273.15)
@@ -180,37 +166,6 @@ def cmd_scales(args) -> None:
     _emit(args, payload, human)
 
 
-def _list(text: str | None) -> list[str] | None:
-    return None if text is None else [part.strip() for part in text.split(",") if part.strip()]
-
-
-def _weights(text: str | None) -> dict | None:
-    if text is None:
-        return None
-    weights = {}
-    for part in text.split(","):
-        key, _, value = part.partition("=")
-        if not value:
-            raise InputError(f"--weights must look like unacceptable=1,price=0.2 (given {text!r})", field="--weights")
-        weights[key.strip()] = _number(value, f"--weights {key.strip()}")
-    return weights
-
-
-def scenario_from_args(args, catalog: Catalog):
-    """The screening scenario described by the command line."""
-    ph = parse_range(args.ph, "--ph")
-    potential = parse_range(args.potential, "--potential")
-    accept = _list(args.accept)
-    if accept is not None and not accept:
-        raise InputError("--accept must name at least one region", field="--accept")
-    return make_scenario(
-        ph=list(ph), potential=list(potential), scale=args.scale, activity=_number(args.activity, "--activity"),
-        temperature=_number(args.temperature, "--temperature"), role=args.role, accept=accept,
-        materials=_list(args.materials), family=args.family, rank_by=_list(args.rank_by), weights=_weights(args.weights),
-        catalog=catalog,
-    )
-
-
 def write_csv(result: dict, stream) -> None:
     import csv
 
@@ -223,7 +178,11 @@ def cmd_screen(args) -> None:
     catalog = _catalog(args)
     if args.json and args.csv:
         raise InputError("choose one of --json and --csv", field="--csv")
-    result = payloads.screen_payload(screen(scenario_from_args(args, catalog), catalog))
+    scenario = cli_scenario(ph=args.ph, potential=args.potential, scale=args.scale, activity=args.activity,
+                            temperature=args.temperature, role=args.role, accept=args.accept,
+                            materials=args.materials, family=args.family, rank_by=args.rank_by,
+                            weights=args.weights, catalog=catalog)
+    result = payloads.screen_payload(screen(scenario, catalog))
     if args.csv:
         write_csv(result, sys.stdout)
         return
@@ -310,21 +269,25 @@ def cmd_serve(args) -> None:
     from .server import serve
 
     serve(host=args.host, port=_whole_number(args.port, "--port", 1, 65535),
-          workers=_whole_number(args.workers, "--workers", 1, 64), data_dir=args.data_dir)
+          workers=_whole_number(args.workers, "--workers", 1, 64), data_dir=args.store)
 
 
 def build_parser() -> argparse.ArgumentParser:
     parser = _Parser(prog="electrosieve", description=__doc__.splitlines()[0])
     commands = parser.add_subparsers(dest="command", required=True, parser_class=_Parser)
 
-    def common(sub, window=True):
+    def common(sub, diagram_options=True):
         sub.add_argument("--json", action="store_true", help="print JSON instead of a table")
-        sub.add_argument("--data", metavar="DIR", help="a directory of your own species files laid over the built-in catalog")
-        if window:
+        sub.add_argument("--overlay", metavar="DIR", help="a directory of your own species files laid over the built-in catalog")
+        sub.add_argument("--data", dest="overlay", action=_Renamed, new="--overlay")
+        if diagram_options:
             sub.add_argument("--activity", default=str(DEFAULT_ACTIVITY), help="activity of dissolved species (1e-8 to 1; default 1e-6)")
             sub.add_argument("--temperature", default="25", help="temperature in °C (default 25)")
-            sub.add_argument("--window-ph", default="-2:16", metavar="A:B", help="pH range of the diagram (default -2:16)")
-            sub.add_argument("--window-potential", default="-3:3", metavar="X:Y", help="potential range vs SHE [V] (default -3:3)")
+            sub.add_argument("--ph-limits", default="-2:16", metavar="A:B", help="pH limits of the diagram (default -2:16)")
+            sub.add_argument("--potential-limits", default="-3:3", metavar="X:Y",
+                             help="potential limits of the diagram, vs SHE [V] (default -3:3)")
+            sub.add_argument("--window-ph", dest="ph_limits", action=_Renamed, new="--ph-limits")
+            sub.add_argument("--window-potential", dest="potential_limits", action=_Renamed, new="--potential-limits")
 
     sub = commands.add_parser("diagram", help="the exact E-pH diagram of one element")
     sub.add_argument("element")
@@ -346,11 +309,11 @@ def build_parser() -> argparse.ArgumentParser:
     sub.add_argument("--to", dest="target", required=True)
     sub.add_argument("--ph", help="pH (needed for the RHE)")
     sub.add_argument("--temperature", default="25", help="temperature in °C (default 25)")
-    common(sub, window=False)
+    common(sub, diagram_options=False)
     sub.set_defaults(handler=cmd_convert)
 
     sub = commands.add_parser("scales", help="list the reference scales")
-    common(sub, window=False)
+    common(sub, diagram_options=False)
     sub.set_defaults(handler=cmd_scales)
 
     sub = commands.add_parser("screen", help="rank candidate materials over an operating window")
@@ -365,25 +328,26 @@ def build_parser() -> argparse.ArgumentParser:
     sub.add_argument("--materials", metavar="IDS", help="comma-separated material ids (default: all)")
     sub.add_argument("--family", help="only this family, e.g. noble")
     sub.add_argument("--rank-by", metavar="KEYS", help="ranking order, e.g. unacceptable,instability,dissolved,price")
-    sub.add_argument("--weights", metavar="K=W,...", help="rank by a weighted score instead, e.g. unacceptable=1,price=0.2")
+    sub.add_argument("--weights", metavar="KEY:W,...", help="rank by a weighted score instead, e.g. unacceptable:1,price:0.2")
     sub.add_argument("--csv", action="store_true", help="print the ranked rows as CSV")
-    common(sub, window=False)
+    common(sub, diagram_options=False)
     sub.set_defaults(handler=cmd_screen)
 
     sub = commands.add_parser("materials", help="list the candidate materials with price, abundance and hazards")
-    common(sub, window=False)
+    common(sub, diagram_options=False)
     sub.set_defaults(handler=cmd_materials)
 
     sub = commands.add_parser("sources", help="an element's species data with their citations")
     sub.add_argument("element")
-    common(sub, window=False)
+    common(sub, diagram_options=False)
     sub.set_defaults(handler=cmd_sources)
 
     sub = commands.add_parser("serve", help="run the web app")
     sub.add_argument("--host", default="127.0.0.1")
     sub.add_argument("--port", default="8000")
     sub.add_argument("--workers", default="1", help="worker processes (default 1)")
-    sub.add_argument("--data-dir", help="where shortlists are stored (default: $ELECTROSIEVE_DATA_DIR or ./var)")
+    sub.add_argument("--store", metavar="DIR", help="where shortlists are stored (default: $ELECTROSIEVE_DATA_DIR or ./var)")
+    sub.add_argument("--data-dir", dest="store", action=_Renamed, new="--store")
     sub.set_defaults(handler=cmd_serve)
     return parser
 

@@ -153,7 +153,7 @@ def diagram_figure(payload: dict, *, operating_window: list[list[float]] | None 
 
     figure = go.Figure()
     shown_regions: set[str] = set()
-    ph_range = payload["window"]["ph"]
+    ph_range = payload["limits"]["ph"]
     unit = f"V vs {scale}"
     shaped = []
     for domain in payload["domains"]:
@@ -189,7 +189,7 @@ def diagram_figure(payload: dict, *, operating_window: list[list[float]] | None 
             x=xs, y=ys, mode="lines+markers", line=WINDOW_STYLE, fill="toself", fillcolor=WINDOW_FILL,
             marker={"size": 6, "symbol": "diamond"}, name="operating window", hoveron="points+fills",
             hovertemplate=f"operating window corner<br>pH %{{x:.2f}}, E %{{y:.3f}} {unit}<extra></extra>"))
-    e_range = payload["window"]["potential"]
+    e_range = payload["limits"]["potential"]
     figure.update_layout(
         title={"text": title or f"{payload['element']} · dissolved species at {payload['activity']:g} · "
                                 f"{payload['temperature_c']:g} °C", "x": 0.01, "xanchor": "left",

@@ -1,30 +1,30 @@
-"""Request and response models of the web app, in layers per resource.
+"""Request and response schemas of the web app, in layers per resource: the complete public contract.
 
 Requests are strict: unknown fields, wrong types, booleans for numbers, NaN and
 infinities are refused with a 422 naming the field. Bounds come from the engine
-(``engine.diagram``, ``engine.domains.Window``) so the API and the engine agree;
+(``engine.inputs``, ``engine.domains.PlotLimits``) so the API and the engine agree;
 the engine still makes the final checks (e.g. a potential window that leaves the
 diagram once converted to the SHE) and its errors name their field too.
 
-Responses mirror the JSON the CLI prints (``app.payloads``).
+Responses declare every field they carry and allow no other (``Out``), so ``/openapi.json``
+documents every key; their values come from ``app.payloads``, the same JSON the CLI prints.
+Query strings are parsed in ``app.viewstate``.
 """
 
-import math
-import re
 from typing import Annotated, Literal
 
-from pydantic import AfterValidator, BaseModel, ConfigDict, Field, StringConstraints, ValidationError, WithJsonSchema
+from pydantic import AfterValidator, BaseModel, ConfigDict, Field, StringConstraints, WithJsonSchema
 from pydantic_core import PydanticCustomError
 
-from electrosieve.engine.diagram import ACTIVITY_RANGE, DEFAULT_ACTIVITY, TEMPERATURE_RANGE_C
-from electrosieve.engine.domains import Window
+from electrosieve.engine.inputs import ACTIVITY_RANGE, DEFAULT_ACTIVITY, TEMPERATURE_RANGE_C
+from electrosieve.engine.domains import PlotLimits
 from electrosieve.engine.materials import FAMILIES
 from electrosieve.engine.ranking import DEFAULT_ORDER, RANK_KEYS
 from electrosieve.engine.screen import REGIONS, ROLES
 
 from .storage import NOTE_MAX, TITLE_MAX
 
-PLOT = Window()
+PLOT = PlotLimits()
 """The diagram window every screen uses (pH and E vs SHE limits)."""
 
 POTENTIAL_LIMIT = 5.0
@@ -52,10 +52,10 @@ class StrictIn(BaseModel):
 
 
 class Out(BaseModel):
-    """Base of responses: the documented fields are typed; fields the engine adds later pass through unchanged,
-    so the API keeps returning exactly what the CLI prints."""
+    """Base of responses: every field declared and typed, no other allowed (a new result field is added here
+    and in ``app.payloads`` together, or the response fails loudly in the tests)."""
 
-    model_config = ConfigDict(extra="allow")
+    model_config = ConfigDict(extra="forbid")
 
 
 # --- scenarios and screening -------------------------------------------------------------
@@ -162,6 +162,10 @@ class ScreenResult(Out):
     rule: str
     window: OperatingWindowOut
     catalog_version: str
+    conditions: str = Field(description="the assumptions behind the result, in words")
+    neutral_ph: float = Field(description="pH of neutral water at the scenario's temperature")
+    temperature_notes: dict[str, list[str]] = Field(
+        description="per element, the approximations its species' ΔfG(T) used; empty at 25 °C")
     results: list[ScreenRow]
     cautions: list[str]
 
@@ -196,9 +200,12 @@ class WaterOut(Out):
     hydrogen: WaterLine
     oxygen: WaterLine
     pressure_bar: float
+    neutral_ph: float = Field(description="pH of neutral water at the diagram's temperature")
 
 
-class DiagramWindow(Out):
+class DiagramLimits(Out):
+    """The diagram's plot limits: pH and potential ranges."""
+
     ph: list[float]
     potential: list[float]
     scale: str
@@ -210,10 +217,12 @@ class DiagramOut(Out):
     element: str
     activity: float
     temperature_c: float
-    window: DiagramWindow
+    limits: DiagramLimits
     domains: list[DomainOut]
     boundaries: list[BoundaryOut]
     water: WaterOut
+    conditions: str = Field(description="the assumptions behind the diagram, in words")
+    temperature_notes: list[str] = Field(description="the approximations the species' ΔfG(T) used; empty at 25 °C")
     catalog_version: str
 
 
@@ -463,200 +472,3 @@ class MaterialsPage(Out):
     materials: list[MaterialOut]
     catalog_version: str
     links: dict[str, str]
-
-
-# --- the view state: every page's query string -------------------------------------------
-
-UNION_TAG = re.compile(r"^(float|int|str|bool|none|list\[.*\]|dict\[.*\]|literal\[.*\]|function-.*|constrained-.*)$")
-
-
-def field_errors(error: ValidationError, where: str, rename: dict | None = None, flat: bool = False) -> list[FieldError]:
-    """Pydantic's errors as FieldErrors: one per field, the field named in the message.
-
-    ``where`` is the first ``loc`` item ("body", "query"); union branch tags (``float``,
-    ``list[float]``) are dropped from the location and duplicates merged. ``flat`` keeps only
-    the top-level field (a query parameter, not the item of a list it was split into).
-    """
-    rename = rename or {}
-    seen: dict[tuple, FieldError] = {}
-    for item in error.errors(include_url=False, include_input=False, include_context=False):
-        loc = [part for part in item["loc"] if not (isinstance(part, str) and UNION_TAG.match(part))]
-        if loc and loc[0] in rename:
-            loc[0] = rename[loc[0]]
-        if flat:
-            loc = loc[:1]
-        key = tuple(loc)
-        if key in seen:
-            continue
-        name = ".".join(str(part) for part in loc) or where
-        seen[key] = FieldError(loc=[where, *loc], msg=f"{name}: {item['msg']}", type=item["type"])
-    return list(seen.values())
-
-
-SCENARIO_PARAMS = ("ph_low", "ph_high", "potential_low", "potential_high", "scale", "temperature", "activity",
-                   "role", "accept", "pick", "family", "materials", "rank_by", "weights")
-LIST_PARAMS = ("accept", "materials", "compare")
-
-ENGINE_FIELD_TO_PARAM = {"ph": "ph_low", "potential": "potential_low", "materials": "materials"}
-"""Where an engine error on a scenario field points in the query string."""
-
-
-class ViewQuery(BaseModel):
-    """Every page's view state as it appears in the query string (all text, parsed by :meth:`scenario_in`).
-
-    A pH or potential range is ``*_low`` and ``*_high`` (an empty ``*_high`` means a point); candidates
-    are ``pick=all|family|names`` with ``family=…`` or repeated ``materials=…``; ``rank_by`` is a
-    comma-separated order, ``weights`` ``key:weight,…``; the compare page adds repeated ``compare=…``
-    and ``axis`` (the potential scale of the plots). A query string with no scenario parameter at all
-    means :data:`DEFAULT_VIEW`.
-    """
-
-    model_config = ConfigDict(extra="ignore")
-
-    ph_low: str = ""
-    ph_high: str = ""
-    potential_low: str = ""
-    potential_high: str = ""
-    scale: str = "SHE"
-    temperature: str = "25"
-    activity: str = "1e-6"
-    role: str = "anode"
-    accept: list[str] = []
-    pick: str = ""
-    family: str = ""
-    materials: list[str] = []
-    rank_by: str = ""
-    weights: str = ""
-    compare: list[str] = []
-    axis: str = ""
-
-    @classmethod
-    def from_params(cls, params) -> "ViewQuery":
-        """From a multi-valued mapping (Starlette's ``QueryParams`` or a form); extra keys are ignored."""
-        getlist = getattr(params, "getlist", None)
-        values: dict[str, str | list[str]] = {}
-        for name in cls.model_fields:
-            if getlist is not None:
-                found = [str(v) for v in getlist(name)]
-            else:
-                raw = params.get(name)
-                found = [] if raw is None else ([str(v) for v in raw] if isinstance(raw, (list, tuple)) else [str(raw)])
-            if not found:
-                continue
-            values[name] = [v.strip() for v in found if v.strip()] if name in LIST_PARAMS else found[-1].strip()
-        if not any(name in values for name in SCENARIO_PARAMS):
-            values = {**DEFAULT_VIEW.model_dump(include=set(SCENARIO_PARAMS)), **values}
-        return cls(**values)
-
-    @classmethod
-    def from_scenario(cls, echo: dict) -> "ViewQuery":
-        """The view that reproduces an engine scenario echo (for "Start from this" links)."""
-        def pair(value):
-            if isinstance(value, (list, tuple)):
-                low, high = value[0], value[-1]
-                return _number_text(low), ("" if high == low else _number_text(high))
-            return _number_text(value), ""
-
-        ph_low, ph_high = pair(echo["ph"])
-        e_low, e_high = pair(echo["potential"])
-        materials = echo.get("materials") or []
-        family = echo.get("family") or ""
-        rank_by = echo.get("rank_by") or []
-        return cls(
-            ph_low=ph_low, ph_high=ph_high, potential_low=e_low, potential_high=e_high, scale=echo["scale"],
-            temperature=_number_text(echo["temperature"]), activity=_number_text(echo["activity"]),
-            role=echo["role"], accept=list(echo.get("accept") or []),
-            pick="names" if materials else ("family" if family else "all"), family=family, materials=list(materials),
-            rank_by="" if list(rank_by) == list(DEFAULT_ORDER) else ",".join(rank_by),
-            weights=",".join(f"{k}:{_number_text(v)}" for k, v in (echo.get("weights") or {}).items()),
-        )
-
-    def params(self, *, scenario_only: bool = False) -> list[tuple[str, str]]:
-        """The query string's (name, value) pairs in a fixed order; empty values left out except ``*_high``."""
-        pairs: list[tuple[str, str]] = []
-        names = SCENARIO_PARAMS if scenario_only else tuple(self.model_fields)
-        for name in names:
-            value = getattr(self, name)
-            if isinstance(value, list):
-                pairs.extend((name, v) for v in value)
-            elif value or name in ("ph_high", "potential_high"):
-                pairs.append((name, value))
-        return pairs
-
-    def form_values(self) -> dict[str, str | list[str]]:
-        return self.model_dump()
-
-    def picked(self) -> str:
-        """How candidates are chosen: ``all``, ``family`` or ``names``."""
-        if self.pick in ("all", "family", "names"):
-            return self.pick
-        return "names" if self.materials else ("family" if self.family else "all")
-
-    def scenario_in(self) -> tuple["ScenarioIn | None", list[FieldError]]:
-        """The scenario this view asks for, or the errors, each naming its query parameter."""
-        errors: list[FieldError] = []
-
-        def number(name: str, required: bool = True):
-            text = getattr(self, name)
-            if not text:
-                if required:
-                    errors.append(FieldError(loc=["query", name], msg=f"{name}: a number is required"))
-                return None
-            try:
-                value = float(text)
-            except ValueError:
-                errors.append(FieldError(loc=["query", name], msg=f"{name}: not a number (given {text!r})"))
-                return None
-            if not math.isfinite(value):
-                errors.append(FieldError(loc=["query", name], msg=f"{name}: must be a finite number (given {text!r})"))
-                return None
-            return value
-
-        ph_low, ph_high = number("ph_low"), number("ph_high", required=False)
-        e_low, e_high = number("potential_low"), number("potential_high", required=False)
-        temperature, activity = number("temperature"), number("activity")
-        weights = None
-        if self.weights:
-            weights = {}
-            for part in self.weights.split(","):
-                key, sep, value = part.replace("=", ":").partition(":")
-                try:
-                    weight = float(value) if sep else math.nan
-                except ValueError:
-                    weight = math.nan
-                if not math.isfinite(weight):
-                    errors.append(FieldError(loc=["query", "weights"],
-                                             msg=f"weights: write key:weight pairs such as unacceptable:1,price:0.2 (given {self.weights!r})"))
-                    break
-                weights[key.strip().lower()] = weight
-        picked = self.picked()
-        if picked == "names" and not self.materials:
-            errors.append(FieldError(loc=["query", "materials"], msg="materials: tick at least one material, or pick all"))
-        if picked == "family" and not self.family:
-            errors.append(FieldError(loc=["query", "family"], msg="family: choose a family, or pick all"))
-        if errors:
-            return None, errors
-        candidate = {
-            "ph": ph_low if ph_high is None else [ph_low, ph_high],
-            "potential": e_low if e_high is None else [e_low, e_high],
-            "scale": self.scale or "SHE", "temperature": temperature, "activity": activity,
-            "role": self.role.lower(), "accept": [a.lower() for a in self.accept] or None,
-            "materials": self.materials if picked == "names" else None,
-            "family": self.family if picked == "family" else None,
-            "rank_by": [k.strip().lower() for k in self.rank_by.split(",") if k.strip()] or None,
-            "weights": weights,
-        }
-        try:
-            return ScenarioIn.model_validate(candidate), []
-        except ValidationError as error:
-            return None, field_errors(error, "query", rename={"ph": "ph_low", "potential": "potential_low"}, flat=True)
-
-
-def _number_text(value) -> str:
-    """A number as short text that parses back to the same float."""
-    return repr(float(value)).removesuffix(".0") if float(value).is_integer() else repr(float(value))
-
-
-DEFAULT_VIEW = ViewQuery(ph_low="0", ph_high="1", potential_low="1.4", potential_high="1.8", scale="RHE",
-                         temperature="25", activity="1e-6", role="anode", pick="all")
-"""The screen page's first view: an acid water-electrolyser anode, 1.4 to 1.8 V vs RHE at pH 0 to 1 (an example)."""

@@ -1,12 +1,28 @@
-"""JSON-ready payloads built from engine results: one shape shared by the CLI, the API and the pages."""
+"""The wire format: typed engine results turned into JSON-ready dicts, shared by the CLI, the API, the pages and
+the CSV download. Numbers are rounded here, once, and nowhere else (the engine never rounds).
+
+Each result type has one function here; adding a result field means adding one line to that function (and the
+field to its response model in ``app.schemas``).
+"""
 
 from electrosieve.engine.catalog import Catalog
-from electrosieve.engine.diagram import Diagram
+from electrosieve.engine.diagram import Diagram, PointResult
+from electrosieve.engine.screen import Hazard, Scenario, ScreenResult, ScreenRow
 from electrosieve.engine.species import Species
 from electrosieve.engine.thermo import temperature_notes
 from electrosieve.engine.water import conditions_note
+from electrosieve.engine.window import OperatingWindow
 
 from .cautions import CAUTIONS
+
+DIGITS = {"fraction": 12, "share": 9, "energy_ev": 9, "log10": 6, "millivolt": 3, "coordinate": 6, "area": 9,
+          "potential": 9, "ph": 4}
+"""Decimal places on the wire for each kind of number: fractions of the window, a species' share, energies [eV],
+log10 activities, margins [mV], polygon coordinates [pH, V], areas [pH·V], converted potentials [V], pH values."""
+
+
+def _points(vertices) -> list[list[float]]:
+    return [[round(float(x), DIGITS["coordinate"]), round(float(y), DIGITS["coordinate"])] for x, y in vertices]
 
 
 def species_payload(species: Species) -> dict:
@@ -21,17 +37,17 @@ def diagram_payload(diagram: Diagram, catalog: Catalog) -> dict:
         "element": diagram.element,
         "activity": diagram.activity,
         "temperature_c": diagram.temperature_c,
-        "window": {"ph": [diagram.window.ph_min, diagram.window.ph_max],
-                   "potential": [diagram.window.e_min, diagram.window.e_max], "scale": "SHE"},
+        "limits": {"ph": [diagram.limits.ph_min, diagram.limits.ph_max],
+                   "potential": [diagram.limits.e_min, diagram.limits.e_max], "scale": "SHE"},
         "domains": [
-            {**species_payload(d.species), "area": round(d.area, 9),
-             "polygon": [[round(float(x), 6), round(float(y), 6)] for x, y in d.vertices]}
+            {**species_payload(d.species), "area": round(d.area, DIGITS["area"]), "polygon": _points(d.vertices)}
             for d in diagram.domains
         ],
         "boundaries": [
             {"species": [b.first.name, b.second.name], "equation": b.equation,
              "intercept": b.intercept, "slope": b.slope, "ph": b.ph,
-             "start": [round(v, 6) for v in b.start], "end": [round(v, 6) for v in b.end]}
+             "start": [round(v, DIGITS["coordinate"]) for v in b.start],
+             "end": [round(v, DIGITS["coordinate"]) for v in b.end]}
             for b in diagram.boundaries
         ],
         "water": {
@@ -40,7 +56,7 @@ def diagram_payload(diagram: Diagram, catalog: Catalog) -> dict:
             "oxygen": {"intercept": water.oxygen_intercept, "slope": -water.slope,
                        "equation": f"E = {water.oxygen_intercept:.4f} - {water.slope:.4f} pH"},
             "pressure_bar": 1.0,
-            "neutral_ph": round(water.neutral_ph, 4),
+            "neutral_ph": round(water.neutral_ph, DIGITS["ph"]),
         },
         "conditions": conditions_note(diagram.temperature_c),
         "temperature_notes": [] if diagram.temperature_c == 25.0 else temperature_notes(
@@ -49,18 +65,17 @@ def diagram_payload(diagram: Diagram, catalog: Catalog) -> dict:
     }
 
 
-def point_payload(diagram: Diagram, ph: float, potential: float, potential_she: float, scale: str) -> dict:
+def point_payload(point: PointResult) -> dict:
     """What is stable at one point, with the point restated on both scales."""
-    species = diagram.stable_species_at(ph, potential_she)
     return {
-        **species_payload(species),
-        "element": diagram.element,
-        "ph": ph,
-        "potential": potential,
-        "scale": scale,
-        "potential_she": round(potential_she, 9),
-        "activity": diagram.activity,
-        "temperature_c": diagram.temperature_c,
+        **species_payload(point.species),
+        "element": point.diagram.element,
+        "ph": point.ph,
+        "potential": point.potential,
+        "scale": point.scale,
+        "potential_she": round(point.potential_she, DIGITS["potential"]),
+        "activity": point.diagram.activity,
+        "temperature_c": point.diagram.temperature_c,
     }
 
 
@@ -116,9 +131,60 @@ def sources_payload(catalog: Catalog, element: str) -> dict:
             "catalog_version": catalog.version}
 
 
-def screen_payload(result: dict) -> dict:
-    """The screen result with the cautions that go wherever results appear."""
-    return {**result, "cautions": list(CAUTIONS)}
+def scenario_payload(scenario: Scenario) -> dict:
+    """The checked scenario, in the same shape the API accepts (a point as one number, a range as a pair)."""
+    point = lambda pair: pair[0] if pair[0] == pair[1] else list(pair)  # noqa: E731
+    return {
+        "ph": point(scenario.ph), "potential": point(scenario.potential), "scale": scenario.scale,
+        "activity": scenario.activity, "temperature": scenario.temperature, "role": scenario.role,
+        "accept": list(scenario.accept), "materials": None if scenario.materials is None else list(scenario.materials),
+        "family": scenario.family, "rank_by": list(scenario.rank_by), "weights": dict(scenario.weights),
+    }
+
+
+def window_payload(window: OperatingWindow) -> dict:
+    """The operating window's corners on the SHE diagram and its dimension."""
+    return {"vertices_she": _points(window.vertices), "dimension": window.dimension}
+
+
+def hazard_payload(hazard: Hazard) -> dict:
+    return {"kind": hazard.kind, "species": hazard.species, "note": hazard.note}
+
+
+def row_payload(row: ScreenRow) -> dict:
+    """One ranked candidate (the fields of ``app.schemas.ScreenRow``)."""
+    material, judged = row.material, row.judged
+    return {
+        "rank": row.rank, "material": material.id, "name": material.name, "element": material.element,
+        "phase": material.phase, "family": material.family,
+        "fractions": {region: round(value, DIGITS["fraction"]) for region, value in judged.fractions.items()},
+        "unacceptable_fraction": round(judged.unacceptable_fraction, DIGITS["fraction"]),
+        "stable_phases": [{"species": p.species, "region": p.region, "fraction": round(p.fraction, DIGITS["share"])}
+                          for p in judged.pieces],
+        "window_dimension": row.window_dimension,
+        "instability_ev": round(row.instability_ev, DIGITS["energy_ev"]), "instability_at": list(row.instability_at),
+        "log10_dissolved": None if judged.log10_dissolved is None else round(judged.log10_dissolved, DIGITS["log10"]),
+        "dissolved_at": None if judged.dissolved_at is None else list(judged.dissolved_at),
+        "margin_mv": round(1000 * judged.margin_v, DIGITS["millivolt"]), "margin_capped": judged.margin_capped,
+        "hazards": [hazard_payload(h) for h in row.hazards],
+        "price_usd_per_kg": material.price_usd_per_kg, "price_year": material.price_year,
+        "verdict": row.verdict, "reason": row.reason,
+    }
+
+
+def screen_payload(result: ScreenResult) -> dict:
+    """The ranked screen with the cautions that go wherever results appear (the fields of ``app.schemas.ScreenResult``)."""
+    return {
+        "scenario": scenario_payload(result.scenario),
+        "rule": result.rule,
+        "window": window_payload(result.window),
+        "catalog_version": result.catalog_version,
+        "conditions": result.conditions,
+        "neutral_ph": round(result.neutral_ph, DIGITS["ph"]),
+        "temperature_notes": {element: list(notes) for element, notes in result.temperature_notes.items()},
+        "results": [row_payload(row) for row in result.rows],
+        "cautions": list(CAUTIONS),
+    }
 
 
 CSV_COLUMNS = ("rank", "material", "name", "element", "phase", "family", "verdict", "immunity", "passivation", "hydride",
@@ -127,7 +193,7 @@ CSV_COLUMNS = ("rank", "material", "name", "element", "phase", "family", "verdic
 
 
 def csv_rows(result: dict) -> list[dict]:
-    """One flat row per ranked candidate (the CSV download)."""
+    """One flat row per ranked candidate (the CSV download), from the screen payload."""
     rows = []
     for row in result["results"]:
         flat = {key: row.get(key) for key in CSV_COLUMNS}

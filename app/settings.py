@@ -61,7 +61,3 @@ class Settings:
         if self.database_url:
             return self.database_url
         return f"sqlite:///{(self.data_dir / SQLITE_FILE).resolve()}"
-
-    @property
-    def uses_sqlite_file(self) -> bool:
-        return self.storage_url.startswith("sqlite:///")

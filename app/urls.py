@@ -10,7 +10,7 @@ Paths:
 | one material | ``/materials/{id}`` | ``/materials/{id}.json`` | |
 | shortlist | ``/s/{id}`` | ``/s/{id}.json`` (= ``/api/v1/shortlists/{id}``) | ``/s/{id}.csv`` |
 
->>> from electrosieve.app.models import ViewQuery
+>>> from electrosieve.app.viewstate import ViewQuery
 >>> screen_page(ViewQuery(ph_low="7", potential_low="0"))
 '/?ph_low=7&ph_high=&potential_low=0&potential_high=&scale=SHE&temperature=25&activity=1e-6&role=anode'
 >>> material_page("Pt", activity=1e-4)
@@ -42,6 +42,11 @@ def screen_json(view=None) -> str:
 
 def screen_csv(view=None) -> str:
     return with_query("/screen.csv", _view_pairs(view))
+
+
+def screen_ranking(view=None) -> str:
+    """The screen page's ranked pieces alone, as HTML the page's script swaps in."""
+    return with_query("/screen/ranking", _view_pairs(view))
 
 
 def _compare_pairs(view, materials, axis) -> list[tuple[str, str]]:
@@ -103,10 +108,6 @@ def shortlist_csv(shortlist_id: str) -> str:
 def shortlist_form() -> str:
     """Where the screen page's no-JavaScript "Save as shortlist" form posts."""
     return "/shortlists"
-
-
-def api_screen() -> str:
-    return f"{API}/screen"
 
 
 def api_shortlists() -> str:

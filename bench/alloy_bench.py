@@ -40,7 +40,7 @@ def alloy_figures(repeats: int = 5) -> dict:
     for label, spec in COMPOSITIONS.items():
         composition = data.composition_of(spec) if isinstance(spec, str) else spec
 
-        def build():
+        def build(composition=composition):
             return assemblage.material_diagram(composition)
 
         result = build()

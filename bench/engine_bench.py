@@ -10,12 +10,12 @@ import time
 
 from electrosieve.engine.catalog import default_catalog
 from electrosieve.engine.diagram import _cached_diagram
-from electrosieve.engine.domains import Window, boundaries, stability_domains
+from electrosieve.engine.domains import PlotLimits, boundaries, stability_domains
 from electrosieve.engine.planes import build_planes
 from electrosieve.engine.screen import VERDICTS, make_scenario, screen
 from electrosieve.engine.species import Species
 
-WINDOW = Window()
+WINDOW = PlotLimits()
 
 
 def median_ms(action, repeats: int = 30) -> float:
@@ -57,7 +57,7 @@ def growth_ms(counts=(10, 50, 200)) -> dict[str, float]:
     for count in counts:
         species = synthetic_species(count)
 
-        def build():
+        def build(species=species):
             planes = build_planes(species, -237.129, 1e-6)
             boundaries(planes, stability_domains(planes, WINDOW))
 
@@ -80,12 +80,15 @@ def screen_ms() -> dict[str, dict[str, float]]:
     for name, window in SCREEN_WINDOWS.items():
         scenario = make_scenario(**window, catalog=catalog)
 
-        def fresh():
+        def fresh(scenario=scenario):
             VERDICTS.clear()
             screen(scenario, catalog)
 
+        def repeated(scenario=scenario):
+            screen(scenario, catalog)
+
         figures[name] = {"fresh": round(median_ms(fresh, repeats=20), 3),
-                         "repeated": round(median_ms(lambda: screen(scenario, catalog), repeats=20), 3)}
+                         "repeated": round(median_ms(repeated, repeats=20), 3)}
     figures["materials"] = len(catalog.materials)
     return figures
 

@@ -18,7 +18,7 @@ sys.path.insert(0, str(Path(__file__).resolve().parents[1]))
 from electrosieve.engine import thermo  # noqa: E402
 from electrosieve.engine.catalog import default_catalog  # noqa: E402
 from electrosieve.engine.diagram import _cached_diagram  # noqa: E402
-from electrosieve.engine.domains import Window  # noqa: E402
+from electrosieve.engine.domains import PlotLimits  # noqa: E402
 
 ELEMENTS = ("Zn", "Fe", "Cu", "Ni", "Pt")
 REPEATS = 15
@@ -37,7 +37,7 @@ def median_build_time(catalog, element: str, temperature_c: float) -> float:
     for _ in range(REPEATS):
         _clear_thermo_caches()
         start = time.perf_counter()
-        _cached_diagram.__wrapped__(catalog, element, ACTIVITY, temperature_c, Window())
+        _cached_diagram.__wrapped__(catalog, element, ACTIVITY, temperature_c, PlotLimits())
         times.append(time.perf_counter() - start)
     return statistics.median(times)
 
@@ -46,7 +46,7 @@ def temperature_figures() -> dict:
     """Median uncached diagram build times at 25 and 80 °C per element, and the 80/25 ratio of their sums."""
     catalog = default_catalog()
     elements = [e for e in ELEMENTS if e in catalog.systems]
-    _cached_diagram.__wrapped__(catalog, elements[0], ACTIVITY, 80.0, Window())   # warm the data-file reads
+    _cached_diagram.__wrapped__(catalog, elements[0], ACTIVITY, 80.0, PlotLimits())   # warm the data-file reads
     result = {"elements": {}, "repeats": REPEATS}
     total = {25.0: 0.0, 80.0: 0.0}
     for element in elements:

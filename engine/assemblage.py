@@ -27,7 +27,7 @@ at most a few RT/(nF) (about 10 mV for a binary at 25 °C).
 
 import math
 from dataclasses import dataclass
-from functools import cached_property, lru_cache
+from functools import lru_cache
 from itertools import combinations
 
 import numpy as np
@@ -35,8 +35,9 @@ import numpy as np
 from .alloydata import AlloyData, alloy_data
 from .catalog import Catalog, default_catalog
 from .constants import KJ_PER_EV, ZERO_CELSIUS, nernst_slope, thermal_voltage
-from .diagram import DEFAULT_ACTIVITY, check_activity, check_number, check_temperature, check_window, diagram, water_gibbs
-from .domains import MIN_DOMAIN_AREA, SEVERITY, TIE, Window, envelope_piece
+from .diagram import check_limits, diagram, water_gibbs
+from .inputs import DEFAULT_ACTIVITY, check_activity, check_number, check_temperature
+from .domains import MIN_DOMAIN_AREA, SEVERITY, TIE, PlotLimits, envelope_piece
 from .errors import InputError
 from .geometry import WINDOW_EDGE, area, rectangle
 from .mixing import mixing_gibbs, mixing_model
@@ -175,7 +176,7 @@ class MaterialDiagram:
     composition: tuple[tuple[str, float], ...]
     activity: float
     temperature_c: float
-    window: Window
+    window: PlotLimits
     mixing: str
     planes: AssemblagePlanes
     domains: tuple[AssemblageDomain, ...]
@@ -278,7 +279,7 @@ def _segment_length_inside(polygon: np.ndarray, start: np.ndarray, end: np.ndarr
     return (high - low) * float(np.hypot(*direction))
 
 
-def _check_inside(window: Window, ph, potential) -> tuple[float, float]:
+def _check_inside(window: PlotLimits, ph, potential) -> tuple[float, float]:
     ph = check_number(ph, "ph", window.ph_min, window.ph_max, " (the diagram's pH window)")
     potential = check_number(potential, "potential", window.e_min, window.e_max, " V vs SHE (the diagram's window)")
     return ph, potential
@@ -324,7 +325,7 @@ def check_composition(composition, catalog: Catalog) -> tuple[tuple[str, float],
 
 
 def material_diagram(composition, activity: float = DEFAULT_ACTIVITY, temperature_c: float = 25.0,
-                     window: Window = Window(), mixing: str = "ideal", catalog: Catalog | None = None,
+                     window: PlotLimits = PlotLimits(), mixing: str = "ideal", catalog: Catalog | None = None,
                      data: AlloyData | None = None) -> MaterialDiagram:
     """The exact E–pH diagram of a material of bulk ``composition`` (element → amount) at ``activity`` of
     every dissolved species, ``temperature_c`` [°C], within ``window``; ``mixing`` is 'ideal' or 'none'.
@@ -340,11 +341,11 @@ def material_diagram(composition, activity: float = DEFAULT_ACTIVITY, temperatur
         raise InputError(f"mixing must be one of {', '.join(MIXING_MODELS)} (given {mixing!r})", field="mixing")
     data = data or alloy_data(catalog)
     return _cached(catalog, data, check_composition(composition, catalog), check_activity(activity),
-                   check_temperature(temperature_c), check_window(window), mixing)
+                   check_temperature(temperature_c), check_limits(window), mixing)
 
 
 def material_exposures(material_id: str, activity: float = DEFAULT_ACTIVITY, temperature_c: float = 25.0,
-                       window: Window = Window(), catalog: Catalog | None = None) -> tuple[Exposure, ...]:
+                       window: PlotLimits = PlotLimits(), catalog: Catalog | None = None) -> tuple[Exposure, ...]:
     """The diagrams of what a material of ``data/alloys.toml`` shows the electrolyte: its surface, or for a
     coated electrode its coating and the substrate where the coating fails."""
     catalog = catalog or default_catalog()
@@ -359,7 +360,7 @@ def material_exposures(material_id: str, activity: float = DEFAULT_ACTIVITY, tem
 
 @lru_cache(maxsize=128)
 def _cached(catalog: Catalog, data: AlloyData, composition: tuple[tuple[str, float], ...], activity: float,
-            temperature_c: float, window: Window, mixing: str) -> MaterialDiagram:
+            temperature_c: float, window: PlotLimits, mixing: str) -> MaterialDiagram:
     elements = tuple(element for element, _ in composition)
     x = np.array([fraction for _, fraction in composition])
     temperature_k = temperature_c + ZERO_CELSIUS
@@ -478,7 +479,7 @@ def _planes(candidates: list) -> AssemblagePlanes:
     return AssemblagePlanes(assemblages, coefficients[:, 0].copy(), coefficients[:, 1].copy(), coefficients[:, 2].copy())
 
 
-def _domains(planes: AssemblagePlanes, cells: list, window: Window) -> list[AssemblageDomain]:
+def _domains(planes: AssemblagePlanes, cells: list, window: PlotLimits) -> list[AssemblageDomain]:
     """Every non-empty domain: grown from the window's centre across domain edges (each neighbour found by
     its label or by probing just outside the edge); if they do not tile the window, every candidate is computed."""
     found: dict[int, np.ndarray | None] = {}

@@ -22,7 +22,7 @@ from .materials import load_materials
 from .formula import FormulaError, parse_formula
 from .species import PHASES, Species
 
-WATER_FILE = "water.toml"
+WATER_SPECIES_FILE = "water.toml"
 """Species file holding H2O, H+, OH-, H2 and O2 (the solvent and its ions)."""
 
 
@@ -246,7 +246,7 @@ def load_catalog(data_dir: Path | None = None, overlay: Path | None = None) -> C
     if overlay is not None:
         overlay = Path(overlay)
         if not overlay.is_dir():
-            raise CatalogError(f"--data {overlay}: not a directory", field="data")
+            raise CatalogError(f"overlay {overlay}: not a directory", field="overlay")
     sources = _load_table(base / "sources.toml", SourceRow, "source")
     scales = _load_table(base / "scales.toml", ScaleRow, "scale")
     classes = _load_table(base / "uncertainty.toml", UncertaintyClass, "data class")
@@ -261,7 +261,7 @@ def load_catalog(data_dir: Path | None = None, overlay: Path | None = None) -> C
             sources = {**sources, **_load_table(overlay / "sources.toml", SourceRow, "source")}
         extra = [path for path in extra if path.name not in ("sources.toml", "scales.toml", "materials.toml")]
         if not extra:
-            raise CatalogError(f"--data {overlay}: no species files (*.toml) found", field="data")
+            raise CatalogError(f"overlay {overlay}: no species files (*.toml) found", field="overlay")
         for path in extra:
             species_files[path.name] = path
     systems: dict[str, ElementSystem] = {}
@@ -269,7 +269,7 @@ def load_catalog(data_dir: Path | None = None, overlay: Path | None = None) -> C
     for name, path in species_files.items():
         parsed = load_species_file(path)
         system = _to_system(path, parsed, classes)
-        if name == WATER_FILE:
+        if name == WATER_SPECIES_FILE:
             water = {s.name: s for s in system.species}
         else:
             systems[parsed.element] = system

@@ -2,10 +2,9 @@
 
 This is the engine's front door: it checks the inputs, builds the free-energy
 planes (``planes``), computes the exact domains (``domains``) and caches the
-result per (element, activity, temperature, window).
+result per (element, activity, temperature, limits).
 """
 
-import math
 from dataclasses import dataclass
 from functools import cached_property, lru_cache
 
@@ -13,23 +12,15 @@ import numpy as np
 
 from .catalog import Catalog, ElementSystem, default_catalog
 from .constants import ZERO_CELSIUS
-from .domains import Boundary, Domain, Window, boundaries, stability_domains, stable_index_at
+from .domains import Boundary, Domain, PlotLimits, boundaries, stability_domains, stable_index_at
 from .errors import InputError
 from .geometry import stack
+from .inputs import DEFAULT_ACTIVITY, check_activity, check_number, check_temperature
 from .planes import Planes, build_planes
+from .scales import canonical_scale, to_she
 from .species import Species
 from .thermo import formation_gibbs
 from .water import WaterLines, water_lines
-
-DEFAULT_ACTIVITY = 1e-6
-"""Activity of every dissolved species: 10^-6, the usual corrosion convention (Pourbaix 1966, ch. 3) [common practice]."""
-
-ACTIVITY_RANGE = (1e-8, 1.0)
-"""Allowed dissolved-species activities."""
-
-TEMPERATURE_RANGE_C = (0.0, 150.0)
-"""Allowed temperatures [°C]: liquid water at or above its saturation pressure."""
-
 
 @dataclass(frozen=True)
 class Diagram:
@@ -38,7 +29,7 @@ class Diagram:
     element: str
     activity: float
     temperature_c: float
-    window: Window
+    limits: PlotLimits
     planes: Planes
     domains: tuple[Domain, ...]
     boundaries: tuple[Boundary, ...]
@@ -47,7 +38,7 @@ class Diagram:
     @cached_property
     def solid_domains(self) -> tuple[Domain, ...]:
         """Domains of the solids alone (dissolved species left out): where each solid is the most stable solid."""
-        return tuple(stability_domains(self.planes, self.window, competitors=~self.planes.dissolved))
+        return tuple(stability_domains(self.planes, self.limits, competitors=~self.planes.dissolved))
 
     @cached_property
     def outline_stack(self) -> np.ndarray:
@@ -60,37 +51,15 @@ class Diagram:
         return self.planes.species[stable_index_at(self.planes, ph, potential)]
 
 
-def check_number(value, field: str, low: float | None = None, high: float | None = None, what: str = "") -> float:
-    """``value`` as a finite float within [low, high], or an :class:`InputError` naming ``field``."""
-    if isinstance(value, bool) or not isinstance(value, (int, float)):
-        raise InputError(f"{field} must be a number (given {value!r})", field=field)
-    value = float(value)
-    if not math.isfinite(value):
-        raise InputError(f"{field} must be a finite number (given {value!r})", field=field)
-    if (low is not None and value < low) or (high is not None and value > high):
-        raise InputError(f"{field} must be between {low:g} and {high:g}{what} (given {value:g})", field=field)
-    return value
-
-
-def check_activity(activity) -> float:
-    """The dissolved-species activity, checked against :data:`ACTIVITY_RANGE`."""
-    return check_number(activity, "activity", *ACTIVITY_RANGE)
-
-
-def check_temperature(temperature_c) -> float:
-    """The temperature [°C], checked against :data:`TEMPERATURE_RANGE_C`."""
-    return check_number(temperature_c, "temperature", *TEMPERATURE_RANGE_C, what=" °C")
-
-
-def check_window(window: Window) -> Window:
-    """The plot window with finite, increasing limits."""
+def check_limits(limits: PlotLimits) -> PlotLimits:
+    """The diagram's plot limits, finite and increasing."""
     for name in ("ph_min", "ph_max", "e_min", "e_max"):
-        check_number(getattr(window, name), name, -1e3, 1e3)
-    if window.ph_min >= window.ph_max:
-        raise InputError(f"pH window is empty or inverted ({window.ph_min:g} to {window.ph_max:g})", field="ph_min")
-    if window.e_min >= window.e_max:
-        raise InputError(f"potential window is empty or inverted ({window.e_min:g} to {window.e_max:g})", field="e_min")
-    return window
+        check_number(getattr(limits, name), name, -1e3, 1e3)
+    if limits.ph_min >= limits.ph_max:
+        raise InputError(f"pH limits are empty or inverted ({limits.ph_min:g} to {limits.ph_max:g})", field="ph_min")
+    if limits.e_min >= limits.e_max:
+        raise InputError(f"potential limits are empty or inverted ({limits.e_min:g} to {limits.e_max:g})", field="e_min")
+    return limits
 
 
 def water_gibbs(catalog: Catalog, temperature_k: float) -> float:
@@ -105,8 +74,8 @@ def planes_for(system: ElementSystem, catalog: Catalog, activity: float, tempera
 
 
 def diagram(element: str, activity: float = DEFAULT_ACTIVITY, temperature_c: float = 25.0,
-            window: Window = Window(), catalog: Catalog | None = None) -> Diagram:
-    """The exact E–pH diagram of ``element`` at ``activity`` and ``temperature_c`` [°C] within ``window``.
+            limits: PlotLimits = PlotLimits(), catalog: Catalog | None = None) -> Diagram:
+    """The exact E–pH diagram of ``element`` at ``activity`` and ``temperature_c`` [°C] within ``limits``.
 
     >>> d = diagram("Zn")
     >>> sorted({dom.region for dom in d.domains})
@@ -115,26 +84,57 @@ def diagram(element: str, activity: float = DEFAULT_ACTIVITY, temperature_c: flo
     catalog = catalog or default_catalog()
     system = catalog.system(element)
     return _cached_diagram(catalog, system.element, check_activity(activity),
-                           check_temperature(temperature_c), check_window(window))
+                           check_temperature(temperature_c), check_limits(limits))
 
 
 @lru_cache(maxsize=512)
 def _cached_diagram(catalog: Catalog, element: str, activity: float, temperature_c: float,
-                    window: Window) -> Diagram:
+                    limits: PlotLimits) -> Diagram:
     system = catalog.systems[element]
     planes = planes_for(system, catalog, activity, temperature_c)
-    domains = stability_domains(planes, window)
+    domains = stability_domains(planes, limits)
     temperature_k = temperature_c + ZERO_CELSIUS
     return Diagram(
-        element=element, activity=activity, temperature_c=temperature_c, window=window, planes=planes,
+        element=element, activity=activity, temperature_c=temperature_c, limits=limits, planes=planes,
         domains=tuple(domains), boundaries=tuple(boundaries(planes, domains)),
         water=water_lines(water_gibbs(catalog, temperature_k), temperature_k),
     )
 
 
-def check_point(window: Window, ph, potential) -> tuple[float, float]:
-    """A (pH, E vs SHE) point, checked to lie inside ``window``."""
-    ph = check_number(ph, "ph", window.ph_min, window.ph_max, " (the diagram's pH window)")
-    potential = check_number(potential, "potential", window.e_min, window.e_max, " V vs SHE (the diagram's window)")
+def check_point(limits: PlotLimits, ph, potential) -> tuple[float, float]:
+    """A (pH, E vs SHE) point, checked to lie inside ``limits``."""
+    ph = check_number(ph, "ph", limits.ph_min, limits.ph_max, " (the diagram's pH limits)")
+    potential = check_number(potential, "potential", limits.e_min, limits.e_max, " V vs SHE (the diagram's limits)")
     return ph, potential
 
+
+
+@dataclass(frozen=True)
+class PointResult:
+    """What is most stable at one point of an element's diagram."""
+
+    diagram: Diagram
+    species: Species
+    ph: float
+    potential: float
+    """The potential as given [V on ``scale``]."""
+    scale: str
+    potential_she: float
+    """The same potential [V vs SHE]."""
+
+
+def stable_at(diagram: Diagram, scales: dict, ph, potential, scale: str = "SHE") -> PointResult:
+    """The stable species of ``diagram`` at ``ph`` and ``potential`` [V on ``scale``], the point checked to lie
+    within the diagram's limits once converted to the SHE.
+
+    >>> from electrosieve.engine.catalog import default_catalog
+    >>> stable_at(diagram("Zn"), default_catalog().scales, 3.0, -1.2).species.name
+    'Zn'
+    """
+    scale_id = canonical_scale(scales, scale)
+    ph = check_number(ph, "ph")
+    potential = check_number(potential, "potential")
+    potential_she = to_she(scales, potential, scale_id, ph, diagram.temperature_c + ZERO_CELSIUS)
+    ph, potential_she = check_point(diagram.limits, ph, potential_she)
+    return PointResult(diagram=diagram, species=diagram.stable_species_at(ph, potential_she), ph=ph,
+                       potential=potential, scale=scale_id, potential_she=potential_she)

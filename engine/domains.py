@@ -1,8 +1,8 @@
-"""Exact stability domains: the lower envelope of the free-energy planes, clipped to a window.
+"""Exact stability domains: the lower envelope of the free-energy planes, clipped to a limits.
 
 Species i is stable where Φ_i ≤ Φ_j for every j: an intersection of
 half-planes, hence a convex polygon (Pourbaix 1966, Atlas, ch. 2). Each
-domain is computed by clipping the window with the half-plane of the
+domain is computed by clipping the limits with the half-plane of the
 competitor that is most violated at the current vertices, until no vertex is
 violated; for a convex polygon and linear constraints that proves the whole
 polygon satisfies them, so the result is exact, not sampled.
@@ -22,7 +22,7 @@ dropped (relative, as :func:`geometry.clip` treats slivers, so a tiny window sti
 
 
 @dataclass(frozen=True)
-class Window:
+class PlotLimits:
     """A rectangle of the E–pH plane: pH [–] and E [V vs SHE]."""
 
     ph_min: float = -2.0
@@ -100,22 +100,22 @@ def envelope_piece(planes: Planes, index: int, vertices: np.ndarray, labels: np.
     return vertices, labels
 
 
-def domain_of(planes: Planes, index: int, window: Window, competitors: np.ndarray | None = None) -> Domain | None:
-    """The domain of species ``index`` within ``window``, or None when it is nowhere the most stable."""
-    vertices, labels = envelope_piece(planes, index, *rectangle(window.ph_min, window.ph_max, window.e_min, window.e_max),
+def domain_of(planes: Planes, index: int, limits: PlotLimits, competitors: np.ndarray | None = None) -> Domain | None:
+    """The domain of species ``index`` within ``limits``, or None when it is nowhere the most stable."""
+    vertices, labels = envelope_piece(planes, index, *rectangle(limits.ph_min, limits.ph_max, limits.e_min, limits.e_max),
                                       competitors=competitors)
-    if len(vertices) < 3 or area(vertices) < MIN_DOMAIN_AREA * window.area:
+    if len(vertices) < 3 or area(vertices) < MIN_DOMAIN_AREA * limits.area:
         return None
     return Domain(index=index, species=planes.species[index], vertices=vertices, neighbours=labels)
 
 
-def stability_domains(planes: Planes, window: Window, competitors: np.ndarray | None = None) -> list[Domain]:
-    """Every non-empty domain in ``window``, in catalog order; together they tile the window.
+def stability_domains(planes: Planes, limits: PlotLimits, competitors: np.ndarray | None = None) -> list[Domain]:
+    """Every non-empty domain in ``limits``, in catalog order; together they tile the limits.
 
     With a boolean mask ``competitors`` only those species take part (e.g. the solids alone).
     """
     indices = range(len(planes.species)) if competitors is None else np.flatnonzero(competitors)
-    return [d for i in indices if (d := domain_of(planes, int(i), window, competitors)) is not None]
+    return [d for i in indices if (d := domain_of(planes, int(i), limits, competitors)) is not None]
 
 
 def boundaries(planes: Planes, domains: list[Domain]) -> list[Boundary]:

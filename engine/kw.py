@@ -18,19 +18,18 @@ from ``data/water_iapws.toml``.
 import math
 from functools import lru_cache
 
+from .catalog import builtin_data_dir
 from .constants import T_STANDARD
 from .datafiles import read_toml
 from .errors import CatalogError
 
-WATER_FILE = "water_iapws.toml"
+WATER_PROPERTIES_FILE = "water_iapws.toml"
 """Data file holding the Kw and saturated-density coefficients, with their source keys."""
 
 
 @lru_cache(maxsize=1)
 def _coefficients() -> dict:
-    from .catalog import builtin_data_dir
-
-    path = builtin_data_dir() / WATER_FILE
+    path = builtin_data_dir() / WATER_PROPERTIES_FILE
     document = read_toml(path)
     for table, keys in (("ionization", ("n", "alpha0", "alpha1", "alpha2", "beta0", "beta1", "beta2", "gamma0",
                                         "gamma1", "gamma2", "gamma3", "molar_mass", "source")),

@@ -4,13 +4,15 @@ The window is a band of the E–pH plane (``engine.window.Band``). Shearing E' =
 into a rectangle, and every domain polygon of every element is clipped by it at once
 (``engine.geometry.clip_stack``): first by its pH edges, then by its potential edges.
 
-- ``region_fractions``: the share of the window in each domain, by area, length or point.
-- ``instability``: max over the window of Φ_candidate − min Φ [eV per metal atom]; the
+``overlays`` answers every question below for many diagrams at once:
+
+- ``pieces`` (and ``region_fractions``): the share of the window in each domain, by area, length or point.
+- ``gaps`` (and ``largest_gap``): max over the window of Φ_candidate − min Φ [eV per metal atom]; the
   function is convex and piecewise linear, so its maximum lies at a corner of the window.
-- ``max_dissolved``: the largest total dissolved-metal activity in equilibrium with the most
+- ``dissolved``: the largest total dissolved-metal activity in equilibrium with the most
   stable solid; inside one solid's sub-domain its log is a log-sum-exp of linear functions
   (convex), so its maximum lies at a vertex of one of those sub-domains.
-- ``potential_margin``: how far the window can shift along E before meeting an unacceptable
+- ``reach`` (and ``margin``): how far the window can shift along E before meeting an unacceptable
   domain, or (negative) how far it must shift to leave one. Clipped to the window's pH edges, a
   domain spans E' from its lowest to its highest point; the window meets it exactly for the
   shifts from lowest − high to highest − low.
@@ -196,23 +198,12 @@ def _largest_dissolved(table: _SpeciesTable, elements: np.ndarray, owners: np.nd
     return answers
 
 
-def region_pieces(diagram: Diagram, window: OperatingWindow) -> list[Piece]:
-    """Each species' share of the window, largest first; shares sum to 1."""
-    return list(overlays([diagram], window)[0].pieces)
-
-
 def region_fractions(pieces: list[Piece]) -> dict[str, float]:
     """Fractions of the window in immunity, passivation and corrosion."""
     fractions = {region: 0.0 for region in SEVERITY}
     for piece in pieces:
         fractions[piece.region] += piece.fraction
-    return {region: round(value, 12) for region, value in fractions.items()}
-
-
-def instability(diagram: Diagram, window: OperatingWindow, species_name: str) -> tuple[float, tuple[float, float]]:
-    """(max of Φ_candidate − min Φ over the window [eV per metal atom], the corner where it occurs)."""
-    gaps = overlays([diagram], window)[0].gaps
-    return largest_gap(gaps[diagram.planes.index_of[species_name]], window)
+    return fractions
 
 
 def largest_gap(gaps: list[float], window: OperatingWindow) -> tuple[float, tuple[float, float]]:
@@ -222,31 +213,13 @@ def largest_gap(gaps: list[float], window: OperatingWindow) -> tuple[float, tupl
     return max(top, 0.0), window.corners[corner]
 
 
-def log10_dissolved_at(diagram: Diagram, solid: int, ph: float, potential: float) -> float:
-    """log10 of Σ m_j·a_j over dissolved species j in equilibrium with solid ``solid`` at one point."""
-    (value, _), = _largest_dissolved(_SpeciesTable([diagram]), np.array([0]), np.array([solid]),
-                                     np.array([[[ph, potential]]]), np.array([True]))
-    return value
-
-
-def max_dissolved(diagram: Diagram, window: OperatingWindow) -> tuple[float | None, tuple[float, float] | None]:
-    """(largest log10 total dissolved metal [mol/kg, ≈ M] over the window, where it occurs); None without dissolved species."""
-    overlay = overlays([diagram], window)[0]
-    return overlay.dissolved, overlay.dissolved_at
-
-
-def potential_margin(diagram: Diagram, window: OperatingWindow, accept: set[str]) -> tuple[float, bool]:
-    """See :func:`margin`: the margin of one diagram."""
-    return margin(overlays([diagram], window)[0], diagram, window, accept)
-
-
 def margin(overlay: Overlay, diagram: Diagram, window: OperatingWindow, accept: set[str]) -> tuple[float, bool]:
     """(signed margin [V], capped): shift along E to first meet an unacceptable domain (≥ 0),
     or minus the shift needed to leave the unacceptable ones (< 0).
 
-    ``capped`` is True when the answer is limited by the diagram's own potential window.
+    ``capped`` is True when the answer is limited by the diagram's own potential limits.
     """
-    plot = diagram.window
+    plot = diagram.limits
     low_cap = plot.e_min - window.vertices[:, 1].min()
     high_cap = plot.e_max - window.vertices[:, 1].max()
     intervals = sorted((low, high) for region, low, high in overlay.reach if region not in accept)

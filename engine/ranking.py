@@ -50,37 +50,38 @@ def check_weights(weights: dict) -> dict[str, float]:
     return checked
 
 
-def sort_value(row: dict, key: str) -> float:
-    """The number a key compares for one result row (lower ranks first)."""
+RESOLUTION = {"unacceptable": 9, "instability": 6, "dissolved": 6, "margin": 3}
+"""Decimal places at which each key is compared [fraction, eV, log10 units, mV], so that float noise never
+reorders candidates that are equal for every practical purpose."""
+
+
+def sort_value(row, key: str) -> float:
+    """The number a key compares for one row (``engine.screen.ScreenRow``; lower ranks first)."""
     if key == "unacceptable":
-        return round(row["unacceptable_fraction"], 9)
+        return round(row.unacceptable_fraction, RESOLUTION[key])
     if key == "instability":
-        return round(row["instability_ev"], 6)
+        return round(row.instability_ev, RESOLUTION[key])
     if key == "dissolved":
-        value = row["log10_dissolved"]
-        return -math.inf if value is None else round(value, 6)
+        value = row.log10_dissolved
+        return -math.inf if value is None else round(value, RESOLUTION[key])
     if key == "price":
-        price = row.get("price_usd_per_kg")
+        price = row.price_usd_per_kg
         return math.inf if price is None else price
     if key == "margin":
-        return -round(row["margin_mv"], 6)
+        return -round(1000 * row.margin_v, RESOLUTION[key])
     raise KeyError(key)
 
 
-def rank(rows: list[dict], order=DEFAULT_ORDER, weights: dict | None = None) -> list[dict]:
-    """The rows sorted by ``order`` (lexicographic) or by ``weights`` (weighted sum), with ``rank`` set from 1."""
+def rank(rows: list, order=DEFAULT_ORDER, weights: dict | None = None) -> list:
+    """The rows sorted by ``order`` (lexicographic) or by ``weights`` (weighted sum), best first; ties by id."""
     if weights:
         scores = _weighted_scores(rows, weights)
-        ordered = sorted(zip(rows, scores), key=lambda pair: (pair[1], pair[0]["material"].lower()))
-        rows = [row for row, _ in ordered]
-    else:
-        rows = sorted(rows, key=lambda row: (*[sort_value(row, key) for key in order], row["material"].lower()))
-    for position, row in enumerate(rows, start=1):
-        row["rank"] = position
-    return rows
+        ordered = sorted(zip(rows, scores), key=lambda pair: (pair[1], pair[0].id.lower()))
+        return [row for row, _ in ordered]
+    return sorted(rows, key=lambda row: (*[sort_value(row, key) for key in order], row.id.lower()))
 
 
-def _weighted_scores(rows: list[dict], weights: dict[str, float]) -> list[float]:
+def _weighted_scores(rows: list, weights: dict[str, float]) -> list[float]:
     scores = [0.0] * len(rows)
     for key, weight in weights.items():
         values = []
@@ -104,25 +105,25 @@ REGION_WORDS = {"immunity": "immune as {}", "passivation": "passive as {}", "hyd
                 "corrosion": "dissolves as {}"}
 
 
-def reason(row: dict) -> str:
+def reason(row) -> str:
     """One line in plain words: what the window meets, how far the phase sits above the stable state."""
-    pieces = row["stable_phases"]
+    pieces = row.judged.pieces
     if len(pieces) == 1:
-        where = REGION_WORDS[pieces[0]["region"]].format(pieces[0]["species"]) + (
-            " at this point" if row["window_dimension"] == 0 else " over the whole window")
+        where = REGION_WORDS[pieces[0].region].format(pieces[0].species) + (
+            " at this point" if row.window_dimension == 0 else " over the whole window")
     else:
-        shown = [f"{REGION_WORDS[p['region']].format(p['species'])} over {100 * p['fraction']:.0f}%" for p in pieces[:3]]
+        shown = [f"{REGION_WORDS[p.region].format(p.species)} over {100 * p.fraction:.0f}%" for p in pieces[:3]]
         if len(pieces) > 3:
             shown.append(f"{len(pieces) - 3} more")
         where = ", ".join(shown)
-    energy = row["instability_ev"]
-    own = row["phase"]
+    energy = row.instability_ev
+    own = row.material.phase
     if energy < 0.005:
         tail = f"{own} is the stable state ({energy:.2f} eV above it)"
     else:
         tail = f"{own} is up to {energy:.2f} eV per atom above the stable state"
     text = f"{where}; {tail}"
-    dissolved = row["log10_dissolved"]
+    dissolved = row.log10_dissolved
     if dissolved is not None and dissolved >= 0:
         text += "; somewhere in the window no solid holds the metal (equilibrium dissolved metal above 1 M)"
     elif dissolved is not None and dissolved > -6 + 1e-9:

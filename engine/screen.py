@@ -8,16 +8,17 @@ exact diagram (``engine.metrics``) and ranked by a rule shown to the user
 """
 
 from collections import OrderedDict
-from dataclasses import dataclass, field
+from dataclasses import dataclass, field, replace
 from functools import cached_property
 from threading import Lock
 
 from .catalog import Catalog, default_catalog
-from .diagram import DEFAULT_ACTIVITY, Diagram, check_activity, check_temperature, diagram
-from .domains import Window
+from .diagram import Diagram, diagram
+from .domains import PlotLimits
 from .errors import InputError
+from .inputs import DEFAULT_ACTIVITY, check_activity, check_temperature
 from .materials import FAMILIES, Material
-from .metrics import largest_gap, margin, overlays, region_fractions
+from .metrics import Piece, largest_gap, margin, overlays, region_fractions
 from .ranking import DEFAULT_ORDER, RANK_KEYS, check_order, check_weights, rank, reason
 from .thermo import temperature_notes
 from .water import conditions_note
@@ -31,10 +32,15 @@ DEFAULT_ACCEPT = {"cathode": ("immunity",), "anode": ("immunity", "passivation")
 
 @dataclass(frozen=True)
 class Scenario:
-    """A cell's operating conditions and the question asked of the catalog."""
+    """A cell's operating conditions and the question asked of the catalog (checked by :func:`make_scenario`).
+
+    ``ph`` and ``potential`` are (low, high) pairs, equal for a point; ``potential`` is in V on ``scale``;
+    ``temperature`` in °C; ``window`` is the operating window they make on the SHE diagram, built once.
+    """
 
     ph: tuple[float, float]
     potential: tuple[float, float]
+    window: OperatingWindow
     scale: str = "SHE"
     activity: float = DEFAULT_ACTIVITY
     temperature: float = 25.0
@@ -44,16 +50,6 @@ class Scenario:
     family: str | None = None
     rank_by: tuple[str, ...] = DEFAULT_ORDER
     weights: dict = field(default_factory=dict)
-
-    def echo(self) -> dict:
-        """The scenario as JSON, in the same shape the API accepts."""
-        point = lambda pair: pair[0] if pair[0] == pair[1] else list(pair)  # noqa: E731
-        return {
-            "ph": point(self.ph), "potential": point(self.potential), "scale": self.scale,
-            "activity": self.activity, "temperature": self.temperature, "role": self.role,
-            "accept": list(self.accept), "materials": None if self.materials is None else list(self.materials),
-            "family": self.family, "rank_by": list(self.rank_by), "weights": dict(self.weights),
-        }
 
 
 def make_scenario(*, ph, potential, scale: str = "SHE", activity=DEFAULT_ACTIVITY, temperature=25.0,
@@ -85,9 +81,9 @@ def make_scenario(*, ph, potential, scale: str = "SHE", activity=DEFAULT_ACTIVIT
             raise InputError("materials is empty: leave it out to screen every material", field="materials")
         ids = tuple(dict.fromkeys(material_id(catalog, m) for m in materials))
     temperature = check_temperature(temperature)
-    window = operating_window(catalog.scales, ph, potential, scale, temperature, Window())
+    window = operating_window(catalog.scales, ph, potential, scale, temperature, PlotLimits())
     return Scenario(
-        ph=window.ph, potential=window.potential, scale=window.scale, activity=check_activity(activity),
+        ph=window.ph, potential=window.potential, window=window, scale=window.scale, activity=check_activity(activity),
         temperature=temperature, role=role, accept=accept_tuple, materials=ids, family=family,
         rank_by=check_order(rank_by) if rank_by is not None else DEFAULT_ORDER,
         weights=check_weights(weights) if weights else {},
@@ -112,54 +108,133 @@ def candidates(catalog: Catalog, scenario: Scenario) -> list[Material]:
     return chosen
 
 
-def gas_evolution(window: OperatingWindow, water) -> list[dict]:
+@dataclass(frozen=True)
+class Hazard:
+    """Something a lab safety officer would flag: a toxic dissolved species (``kind`` "toxic") or a gas (``kind`` "gas")."""
+
+    kind: str
+    species: str
+    note: str
+
+
+def gas_evolution(window: OperatingWindow, water) -> tuple[Hazard, ...]:
     """Hazards from leaving the water-stability window: H2 below the H2 line, O2 above the O2 line."""
     below = [e < water.hydrogen(ph) - 1e-9 for ph, e in window.vertices]
     above = [e > water.oxygen(ph) + 1e-9 for ph, e in window.vertices]
     hazards = []
     if any(below):
         extent = "the whole window" if all(below) else "part of the window"
-        hazards.append({"kind": "gas", "species": "H2", "note": f"hydrogen evolves over {extent}: flammable gas; ventilate"})
+        hazards.append(Hazard("gas", "H2", f"hydrogen evolves over {extent}: flammable gas; ventilate"))
     if any(above):
         extent = "the whole window" if all(above) else "part of the window"
-        hazards.append({"kind": "gas", "species": "O2", "note": f"oxygen evolves over {extent}; in chloride media chlorine (toxic) may form"})
-    return hazards
+        hazards.append(Hazard("gas", "O2", f"oxygen evolves over {extent}; in chloride media chlorine (toxic) may form"))
+    return tuple(hazards)
+
+
+VERDICT_WORDS = ("acceptable", "partly acceptable", "rejected")
+"""A row's verdict: the window lies wholly, partly or not at all in acceptable regions."""
 
 
 @dataclass(frozen=True)
 class ElementVerdict:
     """What the window meets on one element's diagram: shared by every material of that element."""
 
-    pieces: tuple
-    fractions: dict
-    dissolved: float | None
+    pieces: tuple[Piece, ...]
+    """Each species' share of the window, largest first."""
+    fractions: dict[str, float]
+    """Share of the window [0–1] in immunity, passivation and corrosion."""
+    unacceptable_fraction: float
+    """Share of the window [0–1] outside the accepted regions."""
+    log10_dissolved: float | None
+    """Largest equilibrium total dissolved metal over the window, log10 [mol/kg]; None without dissolved species."""
     dissolved_at: tuple[float, float] | None
-    margin: float
+    """(pH, E [V vs SHE]) where it occurs."""
+    margin_v: float
+    """Potential margin [V]: shift along E before meeting an unacceptable region (negative: needed to leave one)."""
     margin_capped: bool
-    gas: tuple
+    """True when the margin is limited by the diagram's own potential limits."""
+    gas: tuple[Hazard, ...]
     gaps: list
+    """Φ_i − min Φ [eV per metal atom] of each species i (rows) at each window corner (columns)."""
     diagram: Diagram
     accept: tuple[str, ...]
 
-    @cached_property
-    def shared(self) -> dict:
-        """The row fields every material of this element shares, rounded for JSON once (each row copies them)."""
-        unacceptable = round(sum(v for k, v in self.fractions.items() if k not in self.accept), 12)
-        return {
-            "fractions": self.fractions,
-            "unacceptable_fraction": unacceptable,
-            "stable_phases": tuple({"species": p.species, "region": p.region, "fraction": round(p.fraction, 9)}
-                                   for p in self.pieces),
-            "log10_dissolved": None if self.dissolved is None else round(self.dissolved, 6),
-            "dissolved_at": self.dissolved_at,
-            "margin_mv": round(1000 * self.margin, 3), "margin_capped": self.margin_capped,
-            "verdict": "acceptable" if unacceptable <= 1e-9 else ("rejected" if unacceptable >= 1 - 1e-9 else "partly acceptable"),
-        }
+    @property
+    def verdict(self) -> str:
+        """One of :data:`VERDICT_WORDS`."""
+        if self.unacceptable_fraction <= 1e-9:
+            return VERDICT_WORDS[0]
+        return VERDICT_WORDS[2] if self.unacceptable_fraction >= 1 - 1e-9 else VERDICT_WORDS[1]
 
     @cached_property
     def met(self) -> frozenset[str]:
         """The species the window meets: only their hazards are flagged."""
         return frozenset(p.species for p in self.pieces)
+
+
+@dataclass(frozen=True)
+class ScreenRow:
+    """One candidate judged over the window; ``rank`` is set once the rows are ranked (0 before)."""
+
+    material: Material
+    judged: ElementVerdict
+    """The verdict on the material's element, shared with the element's other materials."""
+    window_dimension: int
+    """2 for an area, 1 for a segment, 0 for a point."""
+    instability_ev: float
+    """Largest Φ of the material's own phase above the most stable state over the window [eV per metal atom]."""
+    instability_at: tuple[float, float]
+    """(pH, E [V vs SHE]) of the window corner where it occurs."""
+    hazards: tuple[Hazard, ...]
+    reason: str = ""
+    """One line in plain words (``engine.ranking.reason``)."""
+    rank: int = 0
+
+    @property
+    def id(self) -> str:
+        return self.material.id
+
+    @property
+    def verdict(self) -> str:
+        return self.judged.verdict
+
+    @property
+    def unacceptable_fraction(self) -> float:
+        return self.judged.unacceptable_fraction
+
+    @property
+    def log10_dissolved(self) -> float | None:
+        return self.judged.log10_dissolved
+
+    @property
+    def margin_v(self) -> float:
+        return self.judged.margin_v
+
+    @property
+    def price_usd_per_kg(self) -> float | None:
+        return self.material.price_usd_per_kg
+
+
+@dataclass(frozen=True)
+class ScreenResult:
+    """The ranked answer to a scenario."""
+
+    scenario: Scenario
+    rule: str
+    """The ranking rule in words."""
+    rows: tuple[ScreenRow, ...]
+    """Ranked, best first."""
+    catalog_version: str
+    conditions: str
+    """The assumptions behind the result (temperature, pressures, activities), in words."""
+    neutral_ph: float
+    """pH of neutral water at the scenario's temperature."""
+    temperature_notes: dict[str, tuple[str, ...]]
+    """Per element, the approximations its species' ΔfG(T) used; empty at 25 °C."""
+
+    @property
+    def window(self) -> OperatingWindow:
+        return self.scenario.window
 
 
 class VerdictStore:
@@ -168,7 +243,7 @@ class VerdictStore:
 
     The same question comes back often (the page, its CSV, the saved shortlist, every opening of a
     shared link), so a repeated screen reuses every verdict. The catalog is keyed by identity: a
-    ``--data`` overlay never shares verdicts with the built-in catalog.
+    catalog overlay never shares verdicts with the built-in catalog.
     """
 
     def __init__(self, size: int):
@@ -205,55 +280,41 @@ VERDICTS = VerdictStore(size=512)
 """The engine's verdict store: the last 512 questions, each with up to one verdict per element."""
 
 
-def judge_elements(catalog: Catalog, scenario: Scenario, elements: list[str],
-                   window: OperatingWindow) -> dict[str, ElementVerdict]:
+def judge_elements(catalog: Catalog, scenario: Scenario, elements: list[str]) -> dict[str, ElementVerdict]:
     """Region shares, largest dissolved metal, potential margin and gas evolution for each element.
 
     Verdicts already in :data:`VERDICTS` are reused; the others are computed together, every
     domain of every element clipped by the window in one pass (``engine.metrics.overlays``).
     """
+    window = scenario.window
     accept = tuple(sorted(scenario.accept))
     question = (catalog, scenario.activity, scenario.temperature, window, accept)
     known = VERDICTS.known(question)
     missing = [element for element in elements if element not in known]
     if missing:
         diagrams = [diagram(element, scenario.activity, scenario.temperature, catalog=catalog) for element in missing]
-        gas = tuple(gas_evolution(window, diagrams[0].water))
+        gas = gas_evolution(window, diagrams[0].water)
         computed = {}
         for element, result, overlay in zip(missing, diagrams, overlays(diagrams, window)):
             distance, capped = margin(overlay, result, window, set(accept))
+            fractions = region_fractions(overlay.pieces)
             computed[element] = ElementVerdict(
-                pieces=overlay.pieces, fractions=region_fractions(overlay.pieces), dissolved=overlay.dissolved,
-                dissolved_at=overlay.dissolved_at, margin=distance, margin_capped=capped, gas=gas,
-                gaps=overlay.gaps, diagram=result, accept=accept)
+                pieces=overlay.pieces, fractions=fractions,
+                unacceptable_fraction=sum(v for k, v in fractions.items() if k not in accept),
+                log10_dissolved=overlay.dissolved, dissolved_at=overlay.dissolved_at, margin_v=distance,
+                margin_capped=capped, gas=gas, gaps=overlay.gaps, diagram=result, accept=accept)
         VERDICTS.keep(question, computed)
         known.update(computed)
     return {element: known[element] for element in elements}
 
 
-def screen_material(catalog: Catalog, scenario: Scenario, material: Material, window: OperatingWindow,
-                    verdict: ElementVerdict) -> dict:
-    """All metrics of one candidate (unranked), given its element's verdict."""
+def screen_material(material: Material, window: OperatingWindow, verdict: ElementVerdict) -> ScreenRow:
+    """One candidate judged (unranked), given its element's verdict."""
     energy, energy_at = largest_gap(verdict.gaps[verdict.diagram.planes.index_of[material.phase]], window)
-    shared = verdict.shared
-    hazards = [{"kind": "toxic", "species": h.species, "note": h.note} for h in material.hazards if h.species in verdict.met]
-    row = {
-        "material": material.id, "name": material.name, "element": material.element, "phase": material.phase,
-        "family": material.family,
-        "fractions": dict(shared["fractions"]),
-        "unacceptable_fraction": shared["unacceptable_fraction"],
-        "stable_phases": [dict(phase) for phase in shared["stable_phases"]],
-        "window_dimension": window.dimension,
-        "instability_ev": round(energy, 9), "instability_at": list(energy_at),
-        "log10_dissolved": shared["log10_dissolved"],
-        "dissolved_at": None if shared["dissolved_at"] is None else list(shared["dissolved_at"]),
-        "margin_mv": shared["margin_mv"], "margin_capped": shared["margin_capped"],
-        "hazards": hazards + [dict(h) for h in verdict.gas],
-        "price_usd_per_kg": material.price_usd_per_kg, "price_year": material.price_year,
-        "verdict": shared["verdict"],
-    }
-    row["reason"] = reason(row)
-    return row
+    toxic = tuple(Hazard("toxic", h.species, h.note) for h in material.hazards if h.species in verdict.met)
+    row = ScreenRow(material=material, judged=verdict, window_dimension=window.dimension, instability_ev=energy,
+                    instability_at=energy_at, hazards=toxic + verdict.gas)
+    return replace(row, reason=reason(row))
 
 
 def rule_text(scenario: Scenario) -> str:
@@ -264,25 +325,19 @@ def rule_text(scenario: Scenario) -> str:
     return "Ranked by " + ", then ".join(RANK_KEYS[key] for key in scenario.rank_by) + "."
 
 
-def screen(scenario: Scenario, catalog: Catalog | None = None) -> dict:
+def screen(scenario: Scenario, catalog: Catalog | None = None) -> ScreenResult:
     """The ranked results of every candidate for ``scenario``."""
     catalog = catalog or default_catalog()
-    window = operating_window(catalog.scales, scenario.ph, scenario.potential, scenario.scale, scenario.temperature, Window())
     chosen = candidates(catalog, scenario)
-    verdicts = judge_elements(catalog, scenario, list(dict.fromkeys(m.element for m in chosen)), window)
-    rows = [screen_material(catalog, scenario, m, window, verdicts[m.element]) for m in chosen]
+    verdicts = judge_elements(catalog, scenario, list(dict.fromkeys(m.element for m in chosen)))
+    rows = [screen_material(m, scenario.window, verdicts[m.element]) for m in chosen]
     ranked = rank(rows, scenario.rank_by, scenario.weights or None)
     water = next(iter(verdicts.values())).diagram.water
-    return {
-        "scenario": scenario.echo(),
-        "rule": rule_text(scenario),
-        "window": {"vertices_she": [[round(float(x), 6), round(float(y), 6)] for x, y in window.vertices],
-                   "dimension": window.dimension},
-        "catalog_version": catalog.version,
-        "conditions": conditions_note(scenario.temperature),
-        "neutral_ph": round(water.neutral_ph, 4),
-        "temperature_notes": {} if scenario.temperature == 25.0 else {
-            element: temperature_notes(catalog.systems[element].species, catalog) for element in verdicts},
-        "results": ranked,
-    }
-
+    return ScreenResult(
+        scenario=scenario, rule=rule_text(scenario),
+        rows=tuple(replace(row, rank=position) for position, row in enumerate(ranked, start=1)),
+        catalog_version=catalog.version, conditions=conditions_note(scenario.temperature),
+        neutral_ph=water.neutral_ph,
+        temperature_notes={} if scenario.temperature == 25.0 else {
+            element: tuple(temperature_notes(catalog.systems[element].species, catalog)) for element in verdicts},
+    )

@@ -46,8 +46,10 @@ from functools import lru_cache
 
 from .constants import GAS_CONSTANT, LN10, T_STANDARD, ZERO_CELSIUS
 from .datafiles import read_toml
+from .catalog import builtin_data_dir, default_catalog
 from .errors import CatalogError, InputError
 from .kw import pkw
+from .inputs import TEMPERATURE_RANGE_C
 from .species import Species
 
 CRISS_COBBLE_FILE = "criss_cobble.toml"
@@ -88,8 +90,6 @@ class TemperatureData:
 
 
 def _data_file(name: str) -> tuple[dict, object]:
-    from .catalog import builtin_data_dir
-
     path = builtin_data_dir() / name
     return read_toml(path), path
 
@@ -296,8 +296,6 @@ def temperature_data(species: Species, catalog=None) -> TemperatureData:
     >>> round(temperature_data(default_catalog().water["H2O"]).entropy, 2)   # ΔfS°(H2O, l) [J/(mol K)]
     -163.34
     """
-    from .catalog import default_catalog
-
     return _temperature_data(species, catalog or default_catalog())
 
 
@@ -326,8 +324,6 @@ def temperature_notes(species: tuple[Species, ...] | list[Species], catalog=None
 
 
 def _check_kelvin(temperature_k) -> float:
-    from .diagram import TEMPERATURE_RANGE_C
-
     if isinstance(temperature_k, bool) or not isinstance(temperature_k, (int, float)):
         raise InputError(f"temperature must be a number (given {temperature_k!r})", field="temperature")
     value = float(temperature_k)
@@ -355,8 +351,6 @@ def formation_gibbs(species: Species, temperature_k: float = T_STANDARD, catalog
     temperature_k = _check_kelvin(temperature_k)
     if abs(temperature_k - T_STANDARD) <= 1e-9:
         return species.dgf
-    from .catalog import default_catalog
-
     return _formation_gibbs(species, temperature_k, catalog or default_catalog())
 
 

@@ -14,10 +14,12 @@ pressure above 100 °C, with H2 and O2 at 1 bar partial pressure.
 
 from dataclasses import dataclass
 
+from .catalog import default_catalog
 from .constants import KJ_PER_EV, T_STANDARD, ZERO_CELSIUS, nernst_slope
 from .kw import neutral_ph as _neutral_ph
 from .kw import pkw as _pkw
 from .kw import saturation_pressure
+from .thermo import formation_gibbs
 
 CONDITIONS = ("liquid water; H2 and O2 at 1 bar partial pressure; dissolved species at the stated activity")
 """What is assumed at every temperature, in words for the user."""
@@ -77,9 +79,6 @@ def water_lines_at(temperature_k: float = T_STANDARD, catalog=None) -> WaterLine
     >>> round(water_lines_at(353.15).oxygen(0.0), 4)   # reversible O2/H2O potential at 80 °C [V]
     1.1831
     """
-    from .catalog import default_catalog
-    from .thermo import formation_gibbs
-
     catalog = catalog or default_catalog()
     return water_lines(formation_gibbs(catalog.water["H2O"], temperature_k, catalog), temperature_k)
 
@@ -87,8 +86,9 @@ def water_lines_at(temperature_k: float = T_STANDARD, catalog=None) -> WaterLine
 def conditions_note(temperature_c: float) -> str:
     """The assumptions behind a result at ``temperature_c`` [°C], in words.
 
-    >>> conditions_note(120.0)
-    'At 120 °C: liquid water; H2 and O2 at 1 bar partial pressure; dissolved species at the stated activity; the liquid at its saturation pressure, 1.99 bar.'
+    >>> print(conditions_note(120.0))
+    At 120 °C: liquid water; H2 and O2 at 1 bar partial pressure; dissolved species at the stated activity;
+    the liquid at its saturation pressure, 1.99 bar.
     """
     note = f"At {temperature_c:g} °C: {CONDITIONS}"
     if temperature_c > 100.0:

@@ -12,9 +12,9 @@ from functools import cached_property
 import numpy as np
 
 from .constants import ZERO_CELSIUS
-from .diagram import check_number
-from .domains import Window
+from .domains import PlotLimits
 from .errors import InputError
+from .inputs import check_number
 from .scales import canonical_scale, to_she
 
 
@@ -86,10 +86,10 @@ def check_range(values, field: str, low: float, high: float, unit: str = "") -> 
     return start, end
 
 
-def operating_window(scales: dict, ph, potential, scale: str, temperature_c: float, plot: Window) -> OperatingWindow:
-    """The operating window on the SHE scale, checked to lie inside the diagram window ``plot``."""
+def operating_window(scales: dict, ph, potential, scale: str, temperature_c: float, limits: PlotLimits) -> OperatingWindow:
+    """The operating window on the SHE scale, checked to lie inside the diagram's plot ``limits``."""
     scale = canonical_scale(scales, scale)
-    ph_range = check_range(ph, "ph", plot.ph_min, plot.ph_max)
+    ph_range = check_range(ph, "ph", limits.ph_min, limits.ph_max)
     e_range = check_range(potential, "potential", -1e3, 1e3, " V")
     temperature_k = temperature_c + ZERO_CELSIUS
     corners_ph = [ph_range[0], ph_range[1], ph_range[1], ph_range[0]]
@@ -100,9 +100,9 @@ def operating_window(scales: dict, ph, potential, scale: str, temperature_c: flo
         if not any(abs(point[0] - q[0]) < 1e-12 and abs(point[1] - q[1]) < 1e-12 for q in unique):
             unique.append(point)
     lowest, highest = min(e for _, e in unique), max(e for _, e in unique)
-    if lowest < plot.e_min - 1e-9 or highest > plot.e_max + 1e-9:
+    if lowest < limits.e_min - 1e-9 or highest > limits.e_max + 1e-9:
         raise InputError(
-            f"potential must stay within the diagram's {plot.e_min:g} to {plot.e_max:g} V vs SHE "
+            f"potential must stay within the diagram's {limits.e_min:g} to {limits.e_max:g} V vs SHE "
             f"(this window spans {lowest:.3f} to {highest:.3f} V vs SHE)", field="potential")
     dimension = 2 if len(unique) == 4 else (1 if len(unique) == 2 else 0)
     return OperatingWindow(corners=tuple((float(p), float(e)) for p, e in unique), dimension=dimension,

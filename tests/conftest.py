@@ -29,6 +29,29 @@ SERVER_START_SECONDS = 30
 """Longest wait for a test server to answer /healthz."""
 
 
+BROWSER_FIXTURES = {"page", "browser", "context"}
+"""Tests asking for one of these drive Chromium: marked ``browser``."""
+SERVER_FIXTURES = {"live_server", "start_server", "cli_server"}
+"""Tests asking for one of these start a real server: marked ``slow``."""
+WHOLE_FILES = {"test_postgres.py": "postgres", "test_fuzz.py": "slow", "test_durability.py": "slow",
+               "test_concurrency.py": "slow", "test_browser.py": "browser"}
+"""Files whose every test carries a marker."""
+
+
+def pytest_collection_modifyitems(items):
+    """Mark tests ``browser``, ``postgres`` and ``slow`` (registered in pyproject.toml) so ``make test-fast``
+    can leave them out: by the fixtures they use and by file."""
+    for item in items:
+        fixtures = set(getattr(item, "fixturenames", ()))
+        if fixtures & BROWSER_FIXTURES:
+            item.add_marker(pytest.mark.browser)
+        if fixtures & SERVER_FIXTURES:
+            item.add_marker(pytest.mark.slow)
+        marker = WHOLE_FILES.get(item.path.name)
+        if marker:
+            item.add_marker(getattr(pytest.mark, marker))
+
+
 def chromium_missing_reason() -> str | None:
     if not (os.path.exists(CHROMIUM) and os.access(CHROMIUM, os.X_OK)):
         return f"{CHROMIUM} not found: install Debian's Chromium (sudo apt-get install -y chromium) to run browser tests"

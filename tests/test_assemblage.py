@@ -6,7 +6,7 @@ import pytest
 from electrosieve.engine.assemblage import check_composition, material_diagram, parse_composition
 from electrosieve.engine.catalog import default_catalog
 from electrosieve.engine.diagram import diagram
-from electrosieve.engine.domains import Window
+from electrosieve.engine.domains import PlotLimits
 from electrosieve.engine.errors import InputError
 from electrosieve.engine.mixing import Interaction, mixing_gibbs
 
@@ -98,5 +98,5 @@ def test_bad_inputs_name_their_field():
     with pytest.raises(InputError, match="amount of Fe"):
         parse_composition("Fe=lots")
     with pytest.raises(InputError, match="ph"):
-        material_diagram({"Fe": 1.0}, window=Window(0, 14, -1, 1)).assemblage_at(15.0, 0.0)
+        material_diagram({"Fe": 1.0}, window=PlotLimits(0, 14, -1, 1)).assemblage_at(15.0, 0.0)
     assert parse_composition("Fe=0.7,Cr=0.18,Ni=0.1,Mo=0.02") == {"Fe": 0.7, "Cr": 0.18, "Ni": 0.1, "Mo": 0.02}

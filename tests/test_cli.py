@@ -82,9 +82,9 @@ def test_human_diagram_output(capsys):
     (["diagram", "Zn", "--activity", "2"], "activity must be between"),
     (["diagram", "Zn", "--activity", "nan"], "activity must be a finite number"),
     (["point", "Zn", "--ph", "7", "--potential", "0", "--scale", "XYZ"], "unknown reference scale 'XYZ'"),
-    (["diagram", "Zn", "--window-ph", "5:1"], "empty or inverted"),
+    (["diagram", "Zn", "--ph-limits", "5:1"], "empty or inverted"),
     (["diagram", "Zn", "--temperature", "-10"], "temperature must be between"),
-    (["diagram", "Zn", "--data", "/nonexistent/dir"], "not a directory"),
+    (["diagram", "Zn", "--overlay", "/nonexistent/dir"], "not a directory"),
     (["diagram"], "required"),
     (["frobnicate"], "invalid choice"),
 ])
@@ -98,9 +98,32 @@ def test_bad_input_gives_a_clear_message(capsys, argv, message):
 def test_malformed_user_data_file(capsys, tmp_path):
     (tmp_path / "Zn.toml").write_text('element = "Zn"\n[[species]]\nformula = "Zn"\ncharge = 0\nphase = "solid"\n'
                                       'dgf = "oops"\nsource = "wagman1982"\n')
-    code, _, err = run(capsys, "diagram", "Zn", "--data", str(tmp_path))
+    code, _, err = run(capsys, "diagram", "Zn", "--overlay", str(tmp_path))
     assert code == 2
     assert "Zn.toml" in err and "species #1 (Zn)" in err and "'dgf'" in err
+
+
+@pytest.mark.parametrize("old, new", [
+    (["diagram", "Zn", "--window-ph", "0:14", "--window-potential=-1:2"], ["diagram", "Zn", "--ph-limits", "0:14",
+                                                                         "--potential-limits=-1:2"]),
+    (["screen", "--ph", "1", "--potential", "0.5", "--materials", "Pt,Cu,Zn", "--weights", "unacceptable=1,price=0.2"],
+     ["screen", "--ph", "1", "--potential", "0.5", "--materials", "Pt,Cu,Zn", "--weights", "unacceptable:1,price:0.2"]),
+])
+def test_old_spellings_work_for_one_release_with_a_warning(capsys, old, new):
+    code, out, err = run(capsys, *old, "--json")
+    assert code == 0 and "deprecated" in err and "next release" in err
+    assert json.loads(out) == run_json(capsys, *new)
+
+
+def test_old_overlay_and_store_spellings_still_reach_the_same_options(capsys, tmp_path):
+    from electrosieve.app.cli import build_parser
+
+    parsed = build_parser().parse_args(["serve", "--data-dir", str(tmp_path)])
+    assert parsed.store == str(tmp_path)
+    parsed = build_parser().parse_args(["scales", "--data", str(tmp_path)])
+    assert parsed.overlay == str(tmp_path)
+    err = capsys.readouterr().err
+    assert "--data-dir is deprecated" in err and "use --store" in err and "use --overlay" in err
 
 
 def test_console_script_runs_without_traceback():

@@ -66,7 +66,7 @@ class CliServer:
         self._log_file = open(self.log, "wb")
         self.process = subprocess.Popen(
             [sys.executable, "-m", "electrosieve.app.cli", "serve", "--host", "127.0.0.1", "--port", str(self.port),
-             "--workers", str(workers), "--data-dir", str(data_dir)],
+             "--workers", str(workers), "--store", str(data_dir)],
             cwd=ROOT, env=env, stdout=self._log_file, stderr=subprocess.STDOUT)
 
     def wait_for_workers(self, count: int) -> set[int]:

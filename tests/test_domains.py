@@ -8,7 +8,7 @@ from hypothesis import strategies as st
 from electrosieve.engine.catalog import default_catalog
 from electrosieve.engine.constants import nernst_slope
 from electrosieve.engine.diagram import diagram
-from electrosieve.engine.domains import Window
+from electrosieve.engine.domains import PlotLimits
 from electrosieve.engine.geometry import contains, is_convex
 
 ELEMENTS = sorted(default_catalog().systems)
@@ -18,7 +18,7 @@ SLOPE = nernst_slope()
 @pytest.mark.parametrize("element", ELEMENTS)
 def test_domains_tile_the_window(element):
     result = diagram(element)
-    assert sum(d.area for d in result.domains) == pytest.approx(result.window.area, rel=1e-9)
+    assert sum(d.area for d in result.domains) == pytest.approx(result.limits.area, rel=1e-9)
 
 
 @pytest.mark.parametrize("element", ELEMENTS)
@@ -131,9 +131,9 @@ def test_zinc_is_amphoteric():
     assert result.stable_species_at(4, -0.95).region == "immunity"
 
 
-def test_custom_window_is_honoured():
-    window = Window(ph_min=0, ph_max=14, e_min=-1, e_max=2)
-    result = diagram("Zn", window=window)
+def test_custom_plot_limits_are_honoured():
+    limits = PlotLimits(ph_min=0, ph_max=14, e_min=-1, e_max=2)
+    result = diagram("Zn", limits=limits)
     assert sum(d.area for d in result.domains) == pytest.approx(14 * 3)
     for d in result.domains:
         assert d.vertices[:, 0].min() >= -1e-12 and d.vertices[:, 1].max() <= 2 + 1e-12

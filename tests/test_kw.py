@@ -99,7 +99,7 @@ def test_neutral_ph_is_half_pkw_and_falls_with_temperature():
 
 
 def test_coefficients_live_in_the_data_file_with_resolvable_sources():
-    document = read_toml(builtin_data_dir() / kw.WATER_FILE)
+    document = read_toml(builtin_data_dir() / kw.WATER_PROPERTIES_FILE)
     sources = read_toml(builtin_data_dir() / "sources.toml")
     for table in document.values():
         assert table["source"] in sources

@@ -171,9 +171,9 @@ def test_diagram_labels_never_overlap(client, element):
     domains = diagram["domains"]
     e_values = [p[1] for d in domains for p in d["polygon"]]
     e_range = [min(e_values), max(e_values)]
-    labels = place_labels(domains, diagram["window"]["ph"], e_range)
+    labels = place_labels(domains, diagram["limits"]["ph"], e_range)
     assert any(label["text"] for label in labels)
-    boxes = label_boxes(labels, diagram["window"]["ph"], e_range)
+    boxes = label_boxes(labels, diagram["limits"]["ph"], e_range)
     for a, b in itertools.combinations(boxes, 2):
         assert a[1] <= b[0] or b[1] <= a[0] or a[3] <= b[2] or b[3] <= a[2], (element, a, b)
     for label, domain in zip(labels, domains):
@@ -196,7 +196,7 @@ def test_axis_names_a_reference_by_its_readable_name():
     assert scale_label(scales, "HgHgO-1M") == "Hg/HgO in 1 M NaOH"
     assert scale_label(scales, "RHE") == "RHE"
     payload = {"element": "X", "activity": 1e-6, "temperature_c": 25.0, "domains": [],
-               "window": {"ph": [0, 14], "potential": [-1, 1]},
+               "limits": {"ph": [0, 14], "potential": [-1, 1]},
                "water": {k: {"intercept": 0.0, "slope": -0.0592} for k in ("hydrogen", "oxygen")}}
     figure = figure_dict(payload, scales=scales, scale_id="AgAgCl-3M")
     assert figure["layout"]["yaxis"]["title"]["text"] == "E / V vs Ag/AgCl in 3 M KCl"

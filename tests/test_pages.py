@@ -1,8 +1,10 @@
 """The HTML pages and their JSON twins: one data object feeds both, the view state lives in the query string."""
 
 import csv
+import html
 import io
 import json
+import re
 from html.parser import HTMLParser
 
 import pytest
@@ -11,7 +13,7 @@ from markupsafe import escape
 from electrosieve.app.cautions import CAUTIONS
 from electrosieve.app.figures import rich_formula
 from electrosieve.app.payloads import CSV_COLUMNS
-from electrosieve.app.models import ViewQuery
+from electrosieve.app.viewstate import ViewQuery
 from electrosieve.app.payloads import diagram_payload, sources_payload
 from electrosieve.app.storage import save_shortlist
 from electrosieve.engine.catalog import default_catalog
@@ -369,8 +371,27 @@ def test_screen_page_says_how_data_were_carried_to_another_temperature(client):
     hot = client.get(f"/?{SCENARIO_QUERY}&temperature=80&pick=names&materials=Fe&materials=Pt")
     assert hot.status_code == 200
     result = client.get(f"/screen.json?{SCENARIO_QUERY}&temperature=80&pick=names&materials=Fe&materials=Pt").json()
-    for element, lines in result["result"].get("temperature_notes", {}).items():
+    for lines in result["result"].get("temperature_notes", {}).values():
         for line in lines:
             assert str(escape(line)) in hot.text
     if result["result"].get("conditions"):
         assert str(escape(result["result"]["conditions"])) in hot.text
+
+
+def test_the_ranking_fragment_is_the_page_own_rows(client):
+    # the script swaps these pieces in: they must read exactly as the page renders them
+    page = client.get(f"/?{SCENARIO_QUERY}&pick=names&materials=Pt&materials=Zn&materials=Cr")
+    fragment = client.get(f"/screen/ranking?{SCENARIO_QUERY}&pick=names&materials=Pt&materials=Zn&materials=Cr")
+    assert fragment.status_code == 200 and "<html" not in fragment.text
+    rows = re.findall(r'<tr data-material="(\w+)">(.*?)</tr>', fragment.text, flags=re.S)
+    assert sorted(material for material, _ in rows) == ["Cr", "Pt", "Zn"]
+    for material, cells in rows:
+        assert cells in page.text, material
+    scenario = re.search(r"data-scenario='([^']*)'", fragment.text).group(1)
+    assert client.post("/api/v1/screen", json=json.loads(html.unescape(scenario))).status_code == 200
+
+
+def test_the_ranking_fragment_names_a_bad_parameter(client):
+    fragment = client.get("/screen/ranking?ph_low=3&ph_high=1&potential_low=0")
+    assert fragment.status_code == 422
+    assert '<li data-field="ph_low">' in fragment.text and "inverted" in fragment.text

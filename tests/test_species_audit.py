@@ -6,7 +6,7 @@ from the exact diagram at a dissolved activity of 10^-6 (the corrosion conventio
 
 import pytest
 
-from electrosieve.engine.catalog import default_catalog, load_catalog
+from electrosieve.engine.catalog import default_catalog
 from electrosieve.engine.constants import GAS_CONSTANT, LN10, T_STANDARD
 from electrosieve.engine.diagram import diagram
 from tests.utils.reactions import Check, log10_k, standard_potential

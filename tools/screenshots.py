@@ -40,7 +40,8 @@ def start_server(data_dir: str) -> tuple[subprocess.Popen, str]:
     env = {k: v for k, v in os.environ.items() if k not in ("DATABASE_URL", "ELECTROSIEVE_CATALOG_DIR")}
     env["ELECTROSIEVE_DATA_DIR"] = data_dir
     process = subprocess.Popen([sys.executable, "-m", "uvicorn", "electrosieve.app.main:app", "--host", "127.0.0.1",
-                                "--port", str(port), "--log-level", "warning"], cwd=ROOT, env=env, stdout=subprocess.DEVNULL, stderr=subprocess.DEVNULL)
+                                "--port", str(port), "--log-level", "warning"],
+                               cwd=ROOT, env=env, stdout=subprocess.DEVNULL, stderr=subprocess.DEVNULL)
     deadline = time.monotonic() + 30
     while time.monotonic() < deadline:
         try:

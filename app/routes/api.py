@@ -4,16 +4,17 @@ from fastapi import APIRouter, Depends, Path, Query
 from fastapi.responses import Response
 
 from electrosieve.engine.catalog import Catalog
-from electrosieve.engine.constants import ZERO_CELSIUS
-from electrosieve.engine.diagram import ACTIVITY_RANGE, DEFAULT_ACTIVITY, TEMPERATURE_RANGE_C, check_point, diagram
+from electrosieve.engine.diagram import diagram, stable_at
+from electrosieve.engine.inputs import ACTIVITY_RANGE, DEFAULT_ACTIVITY, TEMPERATURE_RANGE_C
 from electrosieve.engine.errors import ElectrosieveError
-from electrosieve.engine.scales import canonical_scale, to_she
 
 from .. import payloads, urls
 from ..models import (DiagramOut, MaterialOut, PLOT, POTENTIAL_LIMIT, PointOut, ScaleOut, ScenarioIn, ScreenResult,
                       ShortlistCreate, ShortlistCreated, ShortlistPublic, SourcesOut)
-from .common import BODY_RESPONSES, ERROR_RESPONSES, Unprocessable, engine_error, get_catalog, get_storage, run_screen
-from .shortlists import create_shortlist, find_shortlist, shortlist_public
+from ..errors import Unprocessable, engine_error
+from ..pages import screen_result
+from ..shortlists import create_shortlist, find_shortlist, shortlist_public
+from .common import BODY_RESPONSES, ERROR_RESPONSES, get_catalog, get_storage
 
 router = APIRouter(prefix=urls.API, tags=["api"])
 
@@ -71,18 +72,16 @@ def point_json(element: str = ElementPath,
                activity: float = Activity, temperature: float = Temperature, catalog: Catalog = Depends(get_catalog)):
     result = _diagram(element, activity, temperature, catalog)
     try:
-        scale_id = canonical_scale(catalog.scales, scale)
-        potential_she = to_she(catalog.scales, potential, scale_id, ph, temperature + ZERO_CELSIUS)
-        check_point(result.window, ph, potential_she)
+        point = stable_at(result, catalog.scales, ph, potential, scale)
     except ElectrosieveError as error:
         raise Unprocessable([engine_error(error, "query")]) from None
-    return payloads.point_payload(result, ph, potential, potential_she, scale_id)
+    return payloads.point_payload(point)
 
 
 @router.post("/screen", response_model=ScreenResult, responses=BODY_RESPONSES,
              summary="Rank candidates over an operating window (as `electrosieve screen --json`)")
 def screen_json(scenario: ScenarioIn, catalog: Catalog = Depends(get_catalog)):
-    return run_screen(scenario, catalog)
+    return screen_result(scenario, catalog)
 
 
 @router.post("/shortlists", response_model=ShortlistCreated, status_code=201, responses=BODY_RESPONSES,

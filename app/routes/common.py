@@ -1,7 +1,7 @@
 """What every router shares: the catalog and storage of the running app, templates, errors, CSV.
 
-Routers call the engine and ``app.payloads`` through the helpers here; none of
-them computes any science itself.
+Routers parse (``app.viewstate``), call the page builders (``app.pages``, ``app.comparison``,
+``app.shortlists``) and render; none of them computes any science itself, and none imports another.
 """
 
 import csv
@@ -9,21 +9,20 @@ import io
 import threading
 from pathlib import Path
 
-from fastapi import HTTPException, Query, Request
+from fastapi import Query, Request
 from fastapi.responses import HTMLResponse, Response
 from jinja2 import Environment, FileSystemLoader, select_autoescape
 from starlette.templating import Jinja2Templates
 
 from electrosieve.engine.catalog import Catalog, default_catalog, load_catalog
-from electrosieve.engine.errors import ElectrosieveError
-from electrosieve.engine.screen import make_scenario, screen
 
 from .. import urls
 from ..cautions import CAUTIONS
-from ..payloads import CSV_COLUMNS, csv_rows, screen_payload
-from ..models import ENGINE_FIELD_TO_PARAM, ErrorBody, FieldError, ScenarioIn, ViewQuery
+from ..models import ErrorBody
+from ..payloads import CSV_COLUMNS, csv_rows
 from ..settings import Settings
 from ..storage import open_storage
+from ..viewstate import ViewQuery
 
 TEMPLATES_DIR = Path(__file__).resolve().parent.parent / "templates"
 
@@ -121,56 +120,6 @@ def render(request: Request, template: str, context: dict, *, status_code: int =
     return templates.TemplateResponse(request, template, {
         **context, "json_twin": json_twin, "catalog_version": catalog.version, "cautions": list(CAUTIONS),
     }, status_code=status_code)
-
-
-# --- errors -------------------------------------------------------------------------------
-
-class Unprocessable(HTTPException):
-    """A 422 whose detail lists FieldErrors (the same shape FastAPI uses for validation errors)."""
-
-    def __init__(self, errors: list[FieldError]):
-        super().__init__(status_code=422, detail=[e.model_dump() for e in errors])
-        self.errors = errors
-
-
-def engine_error(error: ElectrosieveError, where: str | list, rename: dict | None = None) -> FieldError:
-    """An engine error as a FieldError located at ``where`` (``"body"``, ``"query"``, ``"path"``, or a list
-    such as ``["body", "scenario"]``), its field renamed by ``rename`` when the interface calls it otherwise."""
-    field = error.field or "input"
-    field = (rename or {}).get(field, field)
-    prefix = [where] if isinstance(where, str) else list(where)
-    dotted = ".".join([*prefix[1:], field])
-    message = error.message if error.message.startswith(field) else f"{dotted}: {error.message}"
-    return FieldError(loc=[*prefix, field], msg=message)
-
-
-def not_found(what: str) -> HTTPException:
-    return HTTPException(status_code=404, detail=[{"loc": ["path"], "msg": what, "type": "not_found"}])
-
-
-# --- screening --------------------------------------------------------------------------
-
-def run_screen(scenario: ScenarioIn, catalog: Catalog, *, where: str | list = "body", rename: dict | None = None) -> dict:
-    """The screen payload (``app.payloads.screen_payload`` of ``engine.screen.screen``) or an :class:`Unprocessable`."""
-    if not catalog.materials:
-        raise Unprocessable([FieldError(loc=[*([where] if isinstance(where, str) else where), "materials"],
-                                        msg="materials: the catalog has no materials (data/materials.toml is missing)")])
-    try:
-        checked = make_scenario(**scenario.engine_arguments(), catalog=catalog)
-        return screen_payload(screen(checked, catalog))
-    except ElectrosieveError as error:
-        raise Unprocessable([engine_error(error, where, rename)]) from None
-
-
-def screen_view(view: ViewQuery, catalog: Catalog) -> tuple[dict | None, list[FieldError]]:
-    """The screen result a page's view asks for, or the errors naming its query parameters."""
-    scenario, errors = view.scenario_in()
-    if errors:
-        return None, errors
-    try:
-        return run_screen(scenario, catalog, where="query", rename=ENGINE_FIELD_TO_PARAM), []
-    except Unprocessable as problem:
-        return None, problem.errors
 
 
 def csv_response(result: dict, filename: str, notes: dict | None = None) -> Response:

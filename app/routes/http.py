@@ -22,7 +22,8 @@ from fastapi.responses import JSONResponse
 from starlette.exceptions import HTTPException as StarletteHTTPException
 
 from .. import urls
-from ..models import UNION_TAG, FieldError
+from ..models import FieldError
+from ..viewstate import UNION_TAG
 
 CONTENT_SECURITY_POLICY = "; ".join([
     "default-src 'self'",

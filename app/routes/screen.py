@@ -4,53 +4,14 @@ from fastapi import APIRouter, Depends, Request
 from fastapi.responses import HTMLResponse, Response
 
 from electrosieve.engine.catalog import Catalog
-from electrosieve.engine.ranking import RANK_KEYS
 
-from .. import urls
-from ..cautions import CAUTIONS
-from ..models import Choice, ScreenLinks, ScreenPage, ViewQuery
-from ..payloads import citation
-from .common import (CSV_RESPONSES, ERROR_RESPONSES, HTML_RESPONSES, Unprocessable, csv_response, get_catalog, render,
-                     screen_view, view_query)
+from ..errors import Unprocessable
+from ..models import ScreenPage
+from ..pages import screen_page_data, screen_view
+from ..viewstate import ViewQuery
+from .common import CSV_RESPONSES, ERROR_RESPONSES, HTML_RESPONSES, csv_response, get_catalog, render, view_query
 
 router = APIRouter(tags=["pages"])
-
-
-def form_choices(catalog: Catalog) -> dict:
-    """The form's pickers: reference scales, families present in the catalog, materials, ranking keys."""
-    families = sorted({m.family for m in catalog.materials.values()})
-    return {
-        "scales": [Choice(value=key, label=f"{key}: {row.name}") for key, row in catalog.scales.items()],
-        "families": [Choice(value=f, label=f) for f in families],
-        "materials": [Choice(value=m.id, label=f"{m.name} ({m.family})") for m in catalog.materials.values()],
-        "ranking_keys": [Choice(value=k, label=text) for k, text in RANK_KEYS.items()],
-    }
-
-
-def result_citations(result: dict | None, catalog: Catalog) -> dict[str, str]:
-    """Citations of the practical values a ranked table shows (prices, abundances) and of its reference scale."""
-    if not result:
-        return {}
-    keys = []
-    scale = catalog.scales.get(result["scenario"]["scale"])
-    if scale is not None:
-        keys.append(scale.source)
-    for row in result["results"]:
-        material = catalog.materials.get(row["material"])
-        if material is not None:
-            keys += [k for k in (material.price_source, material.abundance_source) if k]
-    return {key: citation(catalog, key) for key in dict.fromkeys(keys) if key in catalog.sources}
-
-
-def screen_page_data(view: ViewQuery, catalog: Catalog) -> ScreenPage:
-    """The one data object behind the screen page and /screen.json."""
-    result, errors = screen_view(view, catalog)
-    links = ScreenLinks(page=urls.screen_page(view), json_twin=urls.screen_json(view), csv=urls.screen_csv(view),
-                        compare=urls.compare_page(view, materials=[r["material"] for r in result["results"][:3]])
-                        if result else urls.compare_page(view))
-    return ScreenPage(query=view.form_values(), scenario=result["scenario"] if result else None, result=result,
-                      errors=errors, links=links, citations=result_citations(result, catalog), cautions=list(CAUTIONS),
-                      **form_choices(catalog))
 
 
 @router.get("/", response_class=HTMLResponse, response_model=None, responses=HTML_RESPONSES,
@@ -61,6 +22,13 @@ def screen_html(request: Request, view: ViewQuery = Depends(view_query), catalog
     page = screen_page_data(view, catalog)
     return render(request, "screen.html", {"page": page, "view": view}, json_twin=page.links.json_twin,
                   status_code=422 if page.errors else 200)
+
+
+@router.get("/screen/ranking", response_class=HTMLResponse, response_model=None, responses=HTML_RESPONSES,
+            summary="The screen page's ranked rows, rule, notes and errors as an HTML fragment (what its script swaps in)")
+def screen_ranking(request: Request, view: ViewQuery = Depends(view_query), catalog: Catalog = Depends(get_catalog)):
+    page = screen_page_data(view, catalog)
+    return render(request, "screen_ranking.html", {"page": page}, status_code=422 if page.errors else 200)
 
 
 @router.get("/screen.json", response_model=ScreenPage, responses=ERROR_RESPONSES,

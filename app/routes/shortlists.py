@@ -1,11 +1,4 @@
-"""Saved shortlists: the read-only page /s/{id}, its JSON twin and CSV, and the screen page's save form.
-
-A shortlist stores the screen result computed at save time (with its catalog
-version); the page re-runs the scenario on today's catalog and says so when the
-order of the candidates would differ.
-"""
-
-import re
+"""Saved shortlists: the read-only page /s/{id}, its JSON twin and CSV, and the screen page's save form."""
 
 from fastapi import APIRouter, Depends, Request
 from fastapi.responses import HTMLResponse, RedirectResponse, Response
@@ -14,78 +7,17 @@ from pydantic import ValidationError
 from electrosieve.engine.catalog import Catalog
 
 from .. import urls
-from ..models import (FieldError, RankCheck, ScenarioIn, ShortlistCreate, ShortlistLinks, ShortlistPublic, ViewQuery,
-                      field_errors)
-from ..storage import ID_PATTERN, StoredShortlist, load_shortlist, save_shortlist
-from .common import (BODY_RESPONSES, CSV_RESPONSES, ERROR_RESPONSES, HTML_RESPONSES, Unprocessable, csv_response, get_catalog,
-                     get_storage, not_found, render, run_screen)
-from .screen import result_citations
+from ..errors import Unprocessable
+from ..models import ShortlistCreate, ShortlistPublic
+from ..shortlists import create_shortlist, find_shortlist, shortlist_public
+from ..viewstate import ViewQuery, field_errors
+from .common import (BODY_RESPONSES, CSV_RESPONSES, ERROR_RESPONSES, HTML_RESPONSES, csv_response, get_catalog,
+                     get_storage, render)
 
 router = APIRouter(tags=["pages"])
 
 NOTE_FIELD_PREFIX = "note_"
 """The save form's note fields are ``note_<material id>``."""
-
-
-def create_shortlist(body: ShortlistCreate, catalog: Catalog, storage) -> StoredShortlist:
-    """Screen ``body.scenario`` now, check the notes name ranked materials, and store it all at once."""
-    result = run_screen(body.scenario, catalog, where=["body", "scenario"])
-    ranked = {row["material"].lower(): row["material"] for row in result["results"]}
-    notes, errors = {}, []
-    for key, note in body.notes.items():
-        if key.lower() not in ranked:
-            errors.append(FieldError(loc=["body", "notes", key],
-                                     msg=f"notes.{key}: not a material of this shortlist (ranked: {', '.join(ranked.values())})"))
-        elif note.strip():
-            notes[ranked[key.lower()]] = note.strip()
-    if errors:
-        raise Unprocessable(errors)
-    return save_shortlist(engine=storage, title=body.title, scenario=result["scenario"], result=result, notes=notes)
-
-
-def rank_check(stored: StoredShortlist, catalog: Catalog) -> RankCheck:
-    """Today's ranking of the stored scenario compared with the stored one."""
-    saved = [row["material"] for row in stored.result["results"]]
-    same_version = catalog.version == stored.catalog_version
-
-    try:
-        today = run_screen(ScenarioIn.model_validate(stored.scenario, strict=False), catalog)
-    except (Unprocessable, ValidationError) as problem:
-        reason = "; ".join(e.msg for e in problem.errors) if isinstance(problem, Unprocessable) else str(problem)
-        return RankCheck(catalog_version=catalog.version, same_version=same_version, same_order=None, order=[],
-                         message=f"Today's catalog ({catalog.version}) can no longer screen this scenario: {reason}")
-    order = [row["material"] for row in today["results"]]
-    same = order == saved
-    if same:
-        message = ("Today's catalog ranks these candidates in the same order."
-                   + ("" if same_version else f" (The data changed since: {stored.catalog_version} → {catalog.version}.)"))
-    else:
-        message = (f"Today's catalog ({catalog.version}) would rank differently: {', '.join(order)}. "
-                   f"This shortlist shows the ranking as computed with catalog {stored.catalog_version}.")
-    return RankCheck(catalog_version=catalog.version, same_version=same_version, same_order=same, order=order,
-                     message=message)
-
-
-def shortlist_public(stored: StoredShortlist, catalog: Catalog) -> ShortlistPublic:
-    """The one data object behind /s/{id}, /s/{id}.json and /api/v1/shortlists/{id}."""
-    result = stored.result
-    rows = [{**row, "note": stored.notes.get(row["material"], "")} for row in result["results"]]
-    links = ShortlistLinks(page=urls.shortlist_page(stored.id), json_twin=urls.shortlist_json(stored.id),
-                           csv=urls.shortlist_csv(stored.id),
-                           start_from_this=urls.screen_page(ViewQuery.from_scenario(stored.scenario)))
-    return ShortlistPublic(id=stored.id, title=stored.title, created_at=stored.created_at,
-                           catalog_version=stored.catalog_version, scenario=stored.scenario, rule=result["rule"],
-                           window=result["window"], results=rows, cautions=result["cautions"],
-                           today=rank_check(stored, catalog), links=links,
-                           citations=result_citations(stored.result, catalog))
-
-
-def find_shortlist(shortlist_id: str, storage) -> StoredShortlist:
-    """The stored shortlist or a 404 (ids that cannot be ours are refused without a query)."""
-    stored = load_shortlist(engine=storage, shortlist_id=shortlist_id) if re.match(ID_PATTERN, shortlist_id) else None
-    if stored is None:
-        raise not_found(f"no shortlist {shortlist_id!r}")
-    return stored
 
 
 @router.get("/s/{shortlist_id}.json", response_model=ShortlistPublic, responses=ERROR_RESPONSES,
