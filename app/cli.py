@@ -18,7 +18,7 @@ from electrosieve.engine.scales import canonical_scale, convert, needs_ph, to_sh
 
 from electrosieve.engine.screen import make_scenario, screen
 
-from . import payloads
+from . import csvcells, payloads
 
 EXIT_BAD_INPUT = 2
 EXIT_INTERNAL = 1
@@ -212,11 +212,7 @@ def scenario_from_args(args, catalog: Catalog):
 
 
 def write_csv(result: dict, stream) -> None:
-    import csv
-
-    writer = csv.DictWriter(stream, fieldnames=payloads.CSV_COLUMNS, lineterminator="\n")
-    writer.writeheader()
-    writer.writerows(payloads.csv_rows(result))
+    csvcells.write_csv(stream, payloads.CSV_COLUMNS, payloads.csv_rows(result))
 
 
 def cmd_screen(args) -> None:

@@ -4,7 +4,6 @@ Routers call the engine and ``app.payloads`` through the helpers here; none of
 them computes any science itself.
 """
 
-import csv
 import io
 import threading
 from pathlib import Path
@@ -20,6 +19,7 @@ from electrosieve.engine.screen import make_scenario, screen
 
 from .. import urls
 from ..cautions import CAUTIONS
+from ..csvcells import write_csv
 from ..payloads import CSV_COLUMNS, csv_rows, screen_payload
 from ..models import ENGINE_FIELD_TO_PARAM, ErrorBody, FieldError, ScenarioIn, ViewQuery
 from ..settings import Settings
@@ -177,12 +177,10 @@ def csv_response(result: dict, filename: str, notes: dict | None = None) -> Resp
     """The ranked rows as CSV (``app.payloads.csv_rows``), with a ``note`` column when notes are given."""
     stream = io.StringIO()
     columns = list(CSV_COLUMNS) + (["note"] if notes is not None else [])
-    writer = csv.DictWriter(stream, fieldnames=columns, lineterminator="\n")
-    writer.writeheader()
-    for row in csv_rows(result):
-        if notes is not None:
-            row["note"] = notes.get(row["material"], "")
-        writer.writerow(row)
+    rows = csv_rows(result)
+    for row in rows if notes is not None else ():
+        row["note"] = notes.get(row["material"], "")
+    write_csv(stream, columns, rows)
     return Response(stream.getvalue(), media_type="text/csv; charset=utf-8",
                     headers={"Content-Disposition": f'attachment; filename="{filename}"'})
 

@@ -1,0 +1,68 @@
+"""Hardening under hostile input, load and faults (issue "Hardening"): each test here failed before its fix.
+
+- CSV cells a spreadsheet would run as formulas are neutralised with a leading apostrophe (OWASP,
+  "CSV Injection": the common practice), in the shortlist and screen CSV and in the CLI's ``screen --csv``.
+"""
+
+import csv
+import io
+
+from electrosieve.app import cli
+from electrosieve.app.csvcells import inert_cell
+
+SCENARIO = {"ph": [0, 1], "potential": [-0.2, 0.0], "role": "cathode", "materials": ["Pt", "Zn", "Ni", "Pb"]}
+
+FORMULA_NOTES = {
+    "Pt": '=HYPERLINK("http://attacker.example/","x")',
+    "Zn": "+1+2",
+    "Ni": "  \t-2+3",
+    "Pb": "@SUM(1,2)",
+}
+
+
+def read_csv(text: str) -> list[dict]:
+    return list(csv.DictReader(io.StringIO(text)))
+
+
+# --- CSV formula injection ----------------------------------------------------------------
+
+def test_shortlist_csv_notes_are_inert_in_a_spreadsheet(client):
+    created = client.post("/api/v1/shortlists", json={"title": "=cmd|' /C calc'!A0", "scenario": SCENARIO,
+                                                       "notes": FORMULA_NOTES})
+    assert created.status_code == 201, created.text
+    rows = read_csv(client.get(f"/s/{created.json()['id']}.csv").text)
+    notes = {row["material"]: row["note"] for row in rows}
+    assert notes == {key: "'" + value.strip() for key, value in FORMULA_NOTES.items()}  # notes are stored stripped
+
+
+def test_csv_numbers_stay_numbers_and_plain_text_is_unchanged(client):
+    # the acid cathode window puts Zn in corrosion: its potential margin is a negative number
+    rows = read_csv(client.get("/screen.csv", params={"ph_low": 0, "ph_high": 1, "potential_low": -0.2,
+                                                      "potential_high": 0, "role": "cathode"}).text)
+    margins = [row["margin_mv"] for row in rows if row["margin_mv"]]
+    assert any(value.startswith("-") for value in margins)
+    assert all(float(value) == float(value) for value in margins)  # parseable: no apostrophe on numbers
+    assert all(not row["reason"].startswith("'") for row in rows)
+
+
+def test_inert_cell_rules():
+    assert inert_cell("-0.5") == "'-0.5"  # text that looks like a number is still text
+    assert inert_cell(-0.5) == -0.5 and inert_cell(3) == 3 and inert_cell(None) is None
+    assert inert_cell("\r=1") == "'\r=1" and inert_cell("  \t-2+3") == "'  \t-2+3"
+    assert inert_cell("a=1") == "a=1" and inert_cell("Cr(VI): toxic") == "Cr(VI): toxic" and inert_cell("") == ""
+
+
+def test_cli_screen_csv_cells_are_inert(monkeypatch, capsys):
+    # the CLI writes catalog text (names, reasons, hazards): a catalog row starting with "=" must not run either
+    original = cli.payloads.csv_rows
+
+    def hostile_rows(result):
+        rows = original(result)
+        rows[0]["name"] = "=2+5"
+        rows[0]["hazards"] = "-cmd"
+        return rows
+
+    monkeypatch.setattr(cli.payloads, "csv_rows", hostile_rows)
+    assert cli.main(["screen", "--ph", "0:1", "--potential=-0.2:0", "--role", "cathode", "--csv"]) == 0
+    first = read_csv(capsys.readouterr().out)[0]
+    assert first["name"] == "'=2+5" and first["hazards"] == "'-cmd"
