@@ -92,12 +92,29 @@ def open_storage(*, url: str) -> Engine:
     if engine.dialect.name == "sqlite":
         event.listen(engine, "connect", _sqlite_pragmas)
     with _create_lock:
-        try:
-            metadata.create_all(engine)
-        except OperationalError:
-            # another worker process created the table between the check and the CREATE
-            metadata.create_all(engine)
+        _create_schema(engine)
     return engine
+
+
+SCHEMA_LOCK_KEY = 0x656C_7363_6865_6D61  # "elschema": the PostgreSQL advisory lock taken while creating the schema
+"""Instances started together on a new PostgreSQL database take turns creating the table and its trigger."""
+
+
+def _create_schema(engine: Engine) -> None:
+    """Create the table and trigger once, whatever else starts at the same moment.
+
+    PostgreSQL: under a transaction-scoped advisory lock, so a second instance waits and then finds
+    the table (without it, the loser of the race fails on a duplicate type name). SQLite: a second
+    process that created the table between the check and the CREATE makes the first retry once."""
+    if engine.dialect.name == "postgresql":
+        with engine.begin() as connection:
+            connection.execute(text("SELECT pg_advisory_xact_lock(:key)"), {"key": SCHEMA_LOCK_KEY})
+            metadata.create_all(connection)
+        return
+    try:
+        metadata.create_all(engine)
+    except OperationalError:
+        metadata.create_all(engine)
 
 
 def new_id() -> str:
