@@ -27,8 +27,11 @@ ID_PATTERN = r"^[A-Za-z0-9_-]{16}$"
 
 TITLE_MAX = 200
 NOTE_MAX = 2000
-FORMAT = 1
-"""Version of the stored JSON layout (the screen payload of ``app.payloads.screen_payload``)."""
+NOTES_TOTAL_MAX = 20_000
+"""Characters of all notes of one shortlist together."""
+FORMAT = 2
+"""Version of the stored ``result`` layout: 1, the whole screen payload (older rows, still read);
+2, the compact record of ``app.routes.shortlists.compact_record`` (what was shown; the rest is recomputed)."""
 
 metadata = MetaData()
 
@@ -58,7 +61,7 @@ event.listen(shortlists, "after_create", DDL(
 
 @dataclass(frozen=True)
 class StoredShortlist:
-    """A shortlist as saved: the scenario echo, the screen result at save time and the notes per material."""
+    """A shortlist as saved: the scenario echo, the result record at save time (layout ``format``) and the notes."""
 
     id: str
     title: str
@@ -67,6 +70,7 @@ class StoredShortlist:
     scenario: dict
     result: dict
     notes: dict
+    format: int = FORMAT
 
 
 def _sqlite_pragmas(dbapi_connection, _record) -> None:
@@ -127,11 +131,15 @@ def _dumps(value) -> str:
 
 
 def save_shortlist(*, engine: Engine, title: str, scenario: dict, result: dict, notes: dict) -> StoredShortlist:
-    """Store a new shortlist in one transaction and return it with its id."""
+    """Store a new shortlist in one transaction and return it with its id.
+
+    ``result`` is the record in the current layout (:data:`FORMAT`) and carries its ``catalog_version``."""
     if not title or len(title) > TITLE_MAX:
         raise ValueError(f"title must have 1 to {TITLE_MAX} characters")
     if any(len(note) > NOTE_MAX for note in notes.values()):
         raise ValueError(f"notes may have at most {NOTE_MAX} characters")
+    if sum(len(note) for note in notes.values()) > NOTES_TOTAL_MAX:
+        raise ValueError(f"notes may have at most {NOTES_TOTAL_MAX} characters together")
     created = datetime.now(timezone.utc).isoformat(timespec="seconds")
     row = {"title": title, "created_at": created, "catalog_version": result.get("catalog_version", ""),
            "format": FORMAT, "scenario": _dumps(scenario), "result": _dumps(result), "notes": _dumps(notes)}
@@ -155,7 +163,7 @@ def load_shortlist(*, engine: Engine, shortlist_id: str) -> StoredShortlist | No
         return None
     return StoredShortlist(id=row["id"], title=row["title"], created_at=row["created_at"],
                            catalog_version=row["catalog_version"], scenario=json.loads(row["scenario"]),
-                           result=json.loads(row["result"]), notes=json.loads(row["notes"]))
+                           result=json.loads(row["result"]), notes=json.loads(row["notes"]), format=row["format"])
 
 
 def check_storage(*, engine: Engine) -> str:

@@ -6,6 +6,7 @@
 
 import csv
 import io
+import json
 
 from electrosieve.app import cli
 from electrosieve.app.csvcells import inert_cell
@@ -66,3 +67,59 @@ def test_cli_screen_csv_cells_are_inert(monkeypatch, capsys):
     assert cli.main(["screen", "--ph", "0:1", "--potential=-0.2:0", "--role", "cathode", "--csv"]) == 0
     first = read_csv(capsys.readouterr().out)[0]
     assert first["name"] == "'=2+5" and first["hazards"] == "'-cmd"
+
+
+# --- compact shortlist records --------------------------------------------------------------
+
+WHOLE_CATALOG = {"ph": [0, 1], "potential": [-0.2, 0.0], "role": "cathode"}
+
+
+def test_a_shortlist_stores_a_compact_record_and_shows_the_same_as_a_fresh_screen(client):
+    from sqlalchemy import select
+
+    from electrosieve.app.storage import shortlists
+
+    screened = client.post("/api/v1/screen", json=WHOLE_CATALOG).json()
+    created = client.post("/api/v1/shortlists", json={"title": "whole catalog", "scenario": WHOLE_CATALOG}).json()
+    with client.app.state.electrosieve.storage.connect() as connection:
+        stored = connection.execute(select(shortlists.c.result).where(shortlists.c.id == created["id"])).scalar()
+    # the whole screen payload was about 45 kB for 51 candidates; the record keeps what the page shows
+    assert len(stored.encode()) < 8_000, len(stored.encode())
+    page = client.get(f"/api/v1/shortlists/{created['id']}").json()
+    assert page["today"]["same_order"] is True
+    for shown, fresh in zip(page["results"], screened["results"], strict=True):
+        assert {k: v for k, v in shown.items() if k != "note"} == fresh
+    assert page["rule"] == screened["rule"] and page["window"] == screened["window"]
+
+
+def test_shortlists_stored_whole_before_the_compact_record_are_still_shown(client):
+    # a row of the first layout (format 1: the whole screen payload), written as older versions wrote it
+    from sqlalchemy import insert
+
+    from electrosieve.app.storage import shortlists
+
+    screened = client.post("/api/v1/screen", json={**WHOLE_CATALOG, "materials": ["Pt", "Zn"]}).json()
+    older = {**screened, "results": [{**row, "reason": f"as saved: {row['reason']}"} for row in screened["results"]]}
+    with client.app.state.electrosieve.storage.begin() as connection:
+        connection.execute(insert(shortlists).values(
+            id="OlderLayout00001", title="saved by an older version", created_at="2026-01-01T00:00:00+00:00",
+            catalog_version=screened["catalog_version"], format=1, scenario=json.dumps(screened["scenario"]),
+            result=json.dumps(older), notes=json.dumps({"Zn": "kept"})))
+    page = client.get("/api/v1/shortlists/OlderLayout00001").json()
+    assert [row["reason"] for row in page["results"]] == [row["reason"] for row in older["results"]]
+    assert {row["material"]: row["note"] for row in page["results"]} == {"Pt": "", "Zn": "kept"}
+    rows = read_csv(client.get("/s/OlderLayout00001.csv").text)
+    assert [row["reason"] for row in rows] == [row["reason"] for row in older["results"]]
+    assert client.get("/s/OlderLayout00001", headers={"accept": "text/html"}).status_code == 200
+
+
+def test_notes_together_are_capped(client):
+    from electrosieve.app.storage import NOTE_MAX, NOTES_TOTAL_MAX
+
+    materials = ["Pt", "Zn", "Ni", "Pb", "Cu", "Au", "Ag", "Fe", "Ti", "Co", "Sn"]
+    notes = {m: "n" * NOTE_MAX for m in materials}
+    assert sum(map(len, notes.values())) > NOTES_TOTAL_MAX
+    response = client.post("/api/v1/shortlists", json={"title": "long", "scenario": {**WHOLE_CATALOG,
+                                                                                        "materials": materials},
+                                                       "notes": notes})
+    assert response.status_code == 422 and response.json()["detail"][0]["loc"] == ["body", "notes"]

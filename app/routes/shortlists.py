@@ -1,8 +1,11 @@
 """Saved shortlists: the read-only page /s/{id}, its JSON twin and CSV, and the screen page's save form.
 
-A shortlist stores the screen result computed at save time (with its catalog
-version); the page re-runs the scenario on today's catalog and says so when the
-order of the candidates would differ.
+A shortlist stores a compact record of what its table shows (:func:`compact_record`: the ranked
+ids with their verdicts, fractions, figures and hazards, the rule and the window, with the catalog
+version); the page re-runs the scenario on today's catalog, fills in the rest (names, reasons,
+stable phases, the points where the worst figures sit) from it, and says so when the order of the
+candidates would differ. Records saved before the compact layout hold the whole screen result and
+are shown as saved.
 """
 
 import re
@@ -16,7 +19,8 @@ from electrosieve.engine.catalog import Catalog
 from .. import urls
 from ..models import (FieldError, RankCheck, ScenarioIn, ShortlistCreate, ShortlistLinks, ShortlistPublic, ViewQuery,
                       field_errors)
-from ..storage import ID_PATTERN, StoredShortlist, load_shortlist, save_shortlist
+from ..cautions import CAUTIONS
+from ..storage import ID_PATTERN, NOTES_TOTAL_MAX, StoredShortlist, load_shortlist, save_shortlist
 from .common import (BODY_RESPONSES, CSV_RESPONSES, ERROR_RESPONSES, HTML_RESPONSES, Unprocessable, csv_response, get_catalog,
                      get_storage, not_found, render, run_screen)
 from .screen import result_citations
@@ -38,22 +42,90 @@ def create_shortlist(body: ShortlistCreate, catalog: Catalog, storage) -> Stored
                                      msg=f"notes.{key}: not a material of this shortlist (ranked: {', '.join(ranked.values())})"))
         elif note.strip():
             notes[ranked[key.lower()]] = note.strip()
+    if sum(len(note) for note in notes.values()) > NOTES_TOTAL_MAX:
+        errors.append(FieldError(loc=["body", "notes"],
+                                 msg=f"notes: at most {NOTES_TOTAL_MAX} characters together (given "
+                                     f"{sum(len(note) for note in notes.values())})"))
     if errors:
         raise Unprocessable(errors)
-    return save_shortlist(engine=storage, title=body.title, scenario=result["scenario"], result=result, notes=notes)
+    return save_shortlist(engine=storage, title=body.title, scenario=result["scenario"], result=compact_record(result),
+                          notes=notes)
 
 
-def rank_check(stored: StoredShortlist, catalog: Catalog) -> RankCheck:
-    """Today's ranking of the stored scenario compared with the stored one."""
-    saved = [row["material"] for row in stored.result["results"]]
-    same_version = catalog.version == stored.catalog_version
+REGIONS = ("immunity", "passivation", "corrosion")
+FIGURES = ("material", "verdict", *REGIONS, "instability_ev", "log10_dissolved", "margin_mv", "margin_capped",
+           "price_usd_per_kg", "price_year", "hazards")
+"""The columns of a compact record's rows: what a shortlist's table shows, in rank order."""
+REASON_UNAVAILABLE = "reason not available: today's catalog cannot screen this candidate in this scenario"
 
+
+def compact_record(result: dict) -> dict:
+    """What a shortlist keeps of a screen result: the ranked ids with the figures its table shows.
+
+    Hazards are kept as (kind, species) with each note once; names, reasons, stable phases and the
+    points where the worst figures sit are recomputed on reading (:func:`expand_record`)."""
+    hazard_notes, rows = {}, []
+    for row in result["results"]:
+        for hazard in row["hazards"]:
+            hazard_notes[f"{hazard['kind']} {hazard['species']}"] = hazard["note"]
+        flat = {**row, **row["fractions"], "hazards": [[hazard["kind"], hazard["species"]] for hazard in row["hazards"]]}
+        rows.append([flat[column] for column in FIGURES])
+    return {"catalog_version": result["catalog_version"], "rule": result["rule"], "window": result["window"],
+            "hazard_notes": hazard_notes, "columns": list(FIGURES), "results": rows}
+
+
+def expand_record(stored: StoredShortlist, today: dict | None, catalog: Catalog) -> dict:
+    """The stored record as a screen result: the saved figures; names from the catalog, and reasons,
+    stable phases and worst points from ``today``'s screen of the same scenario (when it has the candidate)."""
+    if stored.format == 1:
+        return stored.result
+    record = stored.result
+    today_rows = {row["material"]: row for row in today["results"]} if today else {}
+    accepted = set(stored.scenario["accept"])
+    rows = []
+    for rank, values in enumerate(record["results"], start=1):
+        saved = dict(zip(record["columns"], values))
+        now = today_rows.get(saved["material"], {})
+        material = catalog.materials.get(saved["material"])
+        fractions = {region: saved[region] for region in REGIONS}
+        rows.append({
+            "rank": rank, "material": saved["material"],
+            "name": material.name if material else saved["material"],
+            "element": material.element if material else "",
+            "phase": material.phase if material else "",
+            "family": material.family if material else "",
+            "verdict": saved["verdict"], "fractions": fractions,
+            "unacceptable_fraction": sum(share for region, share in fractions.items() if region not in accepted),
+            "stable_phases": now.get("stable_phases", []),
+            "window_dimension": record["window"]["dimension"],
+            "instability_ev": saved["instability_ev"], "instability_at": now.get("instability_at", []),
+            "log10_dissolved": saved["log10_dissolved"], "dissolved_at": now.get("dissolved_at"),
+            "margin_mv": saved["margin_mv"], "margin_capped": saved["margin_capped"],
+            "hazards": [{"kind": kind, "species": species, "note": record["hazard_notes"].get(f"{kind} {species}", "")}
+                        for kind, species in saved["hazards"]],
+            "price_usd_per_kg": saved["price_usd_per_kg"], "price_year": saved["price_year"],
+            "reason": now.get("reason", REASON_UNAVAILABLE),
+        })
+    return {"scenario": stored.scenario, "rule": record["rule"], "window": record["window"],
+            "catalog_version": stored.catalog_version, "results": rows, "cautions": list(CAUTIONS)}
+
+
+def screen_today(stored: StoredShortlist, catalog: Catalog) -> tuple[dict | None, str]:
+    """The stored scenario screened with today's catalog, or None and why it cannot be."""
     try:
-        today = run_screen(ScenarioIn.model_validate(stored.scenario, strict=False), catalog)
+        return run_screen(ScenarioIn.model_validate(stored.scenario, strict=False), catalog), ""
     except (Unprocessable, ValidationError) as problem:
-        reason = "; ".join(e.msg for e in problem.errors) if isinstance(problem, Unprocessable) else str(problem)
+        return None, "; ".join(e.msg for e in problem.errors) if isinstance(problem, Unprocessable) else str(problem)
+
+
+def rank_check(stored: StoredShortlist, saved_result: dict, today: dict | None, problem: str,
+               catalog: Catalog) -> RankCheck:
+    """Today's ranking of the stored scenario compared with the stored one."""
+    saved = [row["material"] for row in saved_result["results"]]
+    same_version = catalog.version == stored.catalog_version
+    if today is None:
         return RankCheck(catalog_version=catalog.version, same_version=same_version, same_order=None, order=[],
-                         message=f"Today's catalog ({catalog.version}) can no longer screen this scenario: {reason}")
+                         message=f"Today's catalog ({catalog.version}) can no longer screen this scenario: {problem}")
     order = [row["material"] for row in today["results"]]
     same = order == saved
     if same:
@@ -68,7 +140,8 @@ def rank_check(stored: StoredShortlist, catalog: Catalog) -> RankCheck:
 
 def shortlist_public(stored: StoredShortlist, catalog: Catalog) -> ShortlistPublic:
     """The one data object behind /s/{id}, /s/{id}.json and /api/v1/shortlists/{id}."""
-    result = stored.result
+    today, problem = screen_today(stored, catalog)
+    result = expand_record(stored, today, catalog)
     rows = [{**row, "note": stored.notes.get(row["material"], "")} for row in result["results"]]
     links = ShortlistLinks(page=urls.shortlist_page(stored.id), json_twin=urls.shortlist_json(stored.id),
                            csv=urls.shortlist_csv(stored.id),
@@ -76,8 +149,8 @@ def shortlist_public(stored: StoredShortlist, catalog: Catalog) -> ShortlistPubl
     return ShortlistPublic(id=stored.id, title=stored.title, created_at=stored.created_at,
                            catalog_version=stored.catalog_version, scenario=stored.scenario, rule=result["rule"],
                            window=result["window"], results=rows, cautions=result["cautions"],
-                           today=rank_check(stored, catalog), links=links,
-                           citations=result_citations(stored.result, catalog))
+                           today=rank_check(stored, result, today, problem, catalog), links=links,
+                           citations=result_citations(result, catalog))
 
 
 def find_shortlist(shortlist_id: str, storage) -> StoredShortlist:
@@ -96,9 +169,10 @@ def shortlist_json(shortlist_id: str, catalog: Catalog = Depends(get_catalog), s
 
 @router.get("/s/{shortlist_id}.csv", response_class=Response, response_model=None, responses=CSV_RESPONSES,
             summary="A shortlist's ranked candidates as CSV, with the notes")
-def shortlist_csv(shortlist_id: str, storage=Depends(get_storage)) -> Response:
+def shortlist_csv(shortlist_id: str, catalog: Catalog = Depends(get_catalog), storage=Depends(get_storage)) -> Response:
     stored = find_shortlist(shortlist_id, storage)
-    return csv_response(stored.result, f"electrosieve-shortlist-{stored.id}.csv", notes=stored.notes)
+    result = expand_record(stored, screen_today(stored, catalog)[0], catalog)
+    return csv_response(result, f"electrosieve-shortlist-{stored.id}.csv", notes=stored.notes)
 
 
 @router.get("/s/{shortlist_id}", response_class=HTMLResponse, response_model=None, responses=HTML_RESPONSES,
