@@ -23,6 +23,7 @@ from electrosieve.engine.ranking import DEFAULT_ORDER, RANK_KEYS
 from electrosieve.engine.screen import REGIONS, ROLES
 
 from .storage import NOTE_MAX, TITLE_MAX
+from .textrules import pattern_refusing, refused_characters
 
 PLOT = Window()
 """The diagram window every screen uses (pH and E vs SHE limits)."""
@@ -301,26 +302,25 @@ class Health(Out):
 # --- shortlists ------------------------------------------------------------------------
 
 def _refuse_control_characters(allowed: str):
-    """A validator refusing C0 control characters (NUL included) and DEL, except those in ``allowed``.
-
-    PostgreSQL cannot store NUL in text at all, and no title needs a control character."""
+    """A validator refusing C0 control characters (NUL included), DEL and bidirectional formatting
+    characters, except the control characters in ``allowed`` (``app.textrules``)."""
     def check(text: str) -> str:
-        bad = sorted({c for c in text if (ord(c) < 32 or ord(c) == 127) and c not in allowed})
+        bad = refused_characters(text, allowed)
         if bad:
             raise PydanticCustomError("control_characters",
-                                      "must not contain control characters (given {found})",
-                                      {"found": ", ".join(f"U+{ord(c):04X}" for c in bad)})
+                                      "must not contain control or text-direction characters (given {found})",
+                                      {"found": ", ".join(bad)})
         return text
     return AfterValidator(check)
 
 
 Title = Annotated[str, StringConstraints(strip_whitespace=True, min_length=1, max_length=TITLE_MAX),
                   _refuse_control_characters(""), WithJsonSchema({
-                      "type": "string", "minLength": 1, "maxLength": TITLE_MAX, "pattern": "^[^\\u0000-\\u001f\\u007f]*$",
-                      "description": "one line of text; control characters are refused"})]
+                      "type": "string", "minLength": 1, "maxLength": TITLE_MAX, "pattern": pattern_refusing("\\u0000-\\u001f\\u007f"),
+                      "description": "one line of text; control and text-direction characters are refused"})]
 Note = Annotated[str, StringConstraints(max_length=NOTE_MAX), _refuse_control_characters("\t\n\r"), WithJsonSchema({
-    "type": "string", "maxLength": NOTE_MAX, "pattern": "^[^\\u0000-\\u0008\\u000b\\u000c\\u000e-\\u001f\\u007f]*$",
-    "description": "free text; tabs and line breaks allowed, other control characters refused"})]
+    "type": "string", "maxLength": NOTE_MAX, "pattern": pattern_refusing("\\u0000-\\u0008\\u000b\\u000c\\u000e-\\u001f\\u007f"),
+    "description": "free text; tabs and line breaks allowed, other control and text-direction characters refused"})]
 
 
 class ShortlistCreate(StrictIn):
