@@ -8,6 +8,8 @@ import csv
 import io
 import json
 
+import pytest
+
 from electrosieve.app import cli
 from electrosieve.app.csvcells import inert_cell
 
@@ -123,3 +125,87 @@ def test_notes_together_are_capped(client):
                                                                                         "materials": materials},
                                                        "notes": notes})
     assert response.status_code == 422 and response.json()["detail"][0]["loc"] == ["body", "notes"]
+
+
+# --- saves: rate limit per client, foreign pages refused --------------------------------------
+
+def app_client(tmp_path, **settings):
+    from fastapi.testclient import TestClient
+
+    from electrosieve.app.main import create_app
+    from electrosieve.app.settings import Settings
+    from electrosieve.engine.catalog import default_catalog
+
+    return TestClient(create_app(Settings(data_dir=tmp_path, **settings), catalog=default_catalog()),
+                      raise_server_exceptions=False)
+
+
+SAVE = {"title": "rate", "scenario": {"ph": 7, "potential": 0.0, "materials": ["Pt", "Zn"]}}
+
+
+def test_saves_beyond_the_rate_get_429_with_retry_after(tmp_path):
+    with app_client(tmp_path, saves_per_minute=3) as client:
+        assert [client.post("/api/v1/shortlists", json=SAVE).status_code for _ in range(3)] == [201] * 3
+        refused = client.post("/api/v1/shortlists", json=SAVE)
+        assert refused.status_code == 429 and 1 <= int(refused.headers["retry-after"]) <= 20
+        assert "at most 3 a minute" in refused.json()["detail"][0]["msg"]
+        form = {"ph_low": "7", "potential_low": "0", "title": "form", "pick": "names", "materials": "Pt"}
+        assert client.post("/shortlists", data=form, follow_redirects=False).status_code == 429
+        assert client.get("/api/v1/materials").status_code == 200  # reading is not limited
+
+
+def test_the_save_rate_is_per_client_and_refills():
+    from electrosieve.app.overload import TokenBuckets
+
+    now = [0.0]
+    buckets = TokenBuckets(2, clock=lambda: now[0])
+    assert [buckets.take("a"), buckets.take("a")] == [0, 0]
+    assert buckets.take("a") == 30.0  # two a minute: the next one in 30 s
+    assert buckets.take("b") == 0
+    now[0] = 30.0
+    assert buckets.take("a") == 0 and buckets.take("a") > 0
+
+
+def test_the_save_rate_is_configurable():
+    from electrosieve.app.settings import Settings, SettingsError
+
+    assert Settings.from_env({"ELECTROSIEVE_SAVES_PER_MINUTE": "0"}).saves_per_minute == 0
+    assert Settings.from_env({}).saves_per_minute == 30
+    for bad in ("many", "-1"):
+        with pytest.raises(SettingsError, match="ELECTROSIEVE_SAVES_PER_MINUTE"):
+            Settings.from_env({"ELECTROSIEVE_SAVES_PER_MINUTE": bad})
+
+
+def test_form_posts_from_another_site_are_refused(client):
+    form = {"ph_low": "7", "potential_low": "0", "title": "csrf", "pick": "names", "materials": "Pt"}
+    for headers in ({"sec-fetch-site": "cross-site"}, {"sec-fetch-site": "same-site"},
+                    {"origin": "http://evil.example"}, {"origin": "null"}):
+        refused = client.post("/shortlists", data=form, headers=headers, follow_redirects=False)
+        assert refused.status_code == 403, headers
+        assert client.post("/api/v1/shortlists", json=SAVE, headers=headers).status_code == 403
+    own = {"origin": "http://testserver", "sec-fetch-site": "same-origin"}
+    assert client.post("/shortlists", data=form, headers=own, follow_redirects=False).status_code == 303
+    assert client.post("/shortlists", data=form, follow_redirects=False).status_code == 303  # no browser headers
+
+
+# --- small HTTP matters -----------------------------------------------------------------------
+
+def test_head_is_answered_where_get_is(client):
+    for path in ("/", "/healthz", "/materials", "/api/v1/materials"):
+        answer = client.head(path)
+        assert answer.status_code == 200 and answer.content == b"", path
+        assert answer.headers["content-type"] == client.get(path).headers["content-type"]
+
+
+def test_redirects_are_relative_whatever_the_host_header(client):
+    answer = client.get("/materials/", headers={"host": "evil.example"}, follow_redirects=False)
+    assert answer.status_code in (307, 308) and answer.headers["location"] == "/materials"
+
+
+def test_titles_notes_and_ids_with_direction_overrides_are_refused(client):
+    for title in ("\u202egnp.exe", "a\u2066b", "x\u200fy"):
+        answer = client.post("/api/v1/shortlists", json={**SAVE, "title": title})
+        assert answer.status_code == 422 and answer.json()["detail"][0]["loc"] == ["body", "title"], title
+    answer = client.post("/api/v1/shortlists", json={**SAVE, "notes": {"Pt": "ok \u202e evil"}})
+    assert answer.status_code == 422 and answer.json()["detail"][0]["loc"][:2] == ["body", "notes"]
+    assert client.get("/api/v1/shortlists/\u202eAAAAAAAAAAAAAAA").status_code in (404, 422)

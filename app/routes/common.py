@@ -72,7 +72,8 @@ class AppState:
         if self._storage is None:
             with self._lock:
                 if self._storage is None:
-                    self._storage = open_storage(url=self.settings.storage_url)
+                    self._storage = open_storage(url=self.settings.storage_url,
+                                                 synchronous=self.settings.sqlite_synchronous)
         return self._storage
 
     def close(self) -> None:

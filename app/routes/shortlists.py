@@ -11,6 +11,7 @@ are shown as saved.
 import re
 
 from fastapi import APIRouter, Depends, Request
+from fastapi.concurrency import run_in_threadpool
 from fastapi.responses import HTMLResponse, RedirectResponse, Response
 from pydantic import ValidationError
 
@@ -198,7 +199,7 @@ async def shortlist_form(request: Request, catalog: Catalog = Depends(get_catalo
         try:
             body = ShortlistCreate.model_validate({"title": str(form.get("title", "")), "scenario": scenario.model_dump(),
                                                    "notes": notes}, strict=False)
-            stored = create_shortlist(body, catalog, storage)
+            stored = await run_in_threadpool(create_shortlist, body, catalog, storage)  # off the event loop
         except ValidationError as error:
             errors = field_errors(error, "form")
         except Unprocessable as problem:
