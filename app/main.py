@@ -66,7 +66,7 @@ def create_app(settings: Settings | None = None, catalog: Catalog | None = None)
     app.add_exception_handler(Exception, unexpected_error)
     # innermost first: each refusal (413, 503 busy, 429, 403) is cheap and still gets the security headers
     app.add_middleware(BodyLimit, max_bytes=settings.max_body_bytes)
-    app.add_middleware(HeavyLimit, limit=settings.heavy_requests)
+    app.add_middleware(HeavyLimit, limit=settings.heavy_requests, queue=settings.heavy_queue)
     app.add_middleware(SaveRateLimit, per_minute=settings.saves_per_minute)
     app.add_middleware(SameOriginPosts)
     app.add_middleware(RelativeRedirects)

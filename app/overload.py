@@ -1,15 +1,18 @@
 """Bounded work: how much load one worker process takes before it answers "later" instead of queueing.
 
 - **Heavy requests** (everything that computes: screens, diagrams, the pages, CSV, saves) run at most
-  ``Settings.heavy_requests`` at once per worker; one more gets 503 with ``Retry-After`` at once,
-  so a burst of expensive pages cannot make the process stop answering. Light requests (``/healthz``,
-  static files, plotly.js, the API reference) never wait behind heavy ones.
+  ``Settings.heavy_requests`` at once per worker (the work is CPU-bound: more at once only makes each
+  slower), and at most ``Settings.heavy_queue`` more wait their turn on the event loop, costing no
+  thread; one more gets 503 with ``Retry-After`` at once, so a burst of expensive pages cannot make
+  the process stop answering. Light requests (``/healthz``, static files, plotly.js, the API
+  reference) never wait behind heavy ones.
 - **Saves** (``POST /api/v1/shortlists`` and the form's ``POST /shortlists``) are limited per client
   address and worker: a token bucket of ``Settings.saves_per_minute`` saves, refilled evenly over a
   minute; beyond it 429 with ``Retry-After`` (seconds until the next save is allowed). The client
   address is the peer's, or the ``X-Forwarded-For`` of a configured proxy (``app.server``).
 """
 
+import asyncio
 import math
 import threading
 import time
@@ -61,24 +64,34 @@ async def _refuse(scope, receive, send, status: int, message: str, kind: str, re
 
 
 class HeavyLimit:
-    """ASGI middleware: at most ``limit`` heavy requests at once; the next one gets 503 + Retry-After at once."""
+    """ASGI middleware: at most ``limit`` heavy requests running and ``queue`` waiting; the next gets 503 at once."""
 
-    def __init__(self, app, limit: int):
+    def __init__(self, app, limit: int, queue: int):
         self.app = app
         self.limit = limit
-        self.active = 0  # touched only on the event loop's thread
+        self.queue = queue
+        self.in_flight = 0  # running and waiting; touched only on the event loop's thread
+        self._turns: asyncio.Semaphore | None = None
+        self._loop = None
+
+    def _semaphore(self) -> asyncio.Semaphore:
+        loop = asyncio.get_running_loop()
+        if self._loop is not loop:  # a semaphore belongs to one event loop (tests run one per client)
+            self._turns, self._loop = asyncio.Semaphore(self.limit), loop
+        return self._turns
 
     async def __call__(self, scope, receive, send):
         if scope["type"] != "http" or scope["path"].startswith(HEAVY_EXEMPT):
             return await self.app(scope, receive, send)
-        if self.active >= self.limit:
+        if self.in_flight >= self.limit + self.queue:
             return await _refuse(scope, receive, send, 503, "busy: too many computations at once; please retry "
                                  f"in {RETRY_AFTER_BUSY} s", "busy", RETRY_AFTER_BUSY)
-        self.active += 1
+        self.in_flight += 1
         try:
-            await self.app(scope, receive, send)
+            async with self._semaphore():
+                await self.app(scope, receive, send)
         finally:
-            self.active -= 1
+            self.in_flight -= 1
 
 
 class SaveRateLimit:

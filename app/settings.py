@@ -7,7 +7,8 @@
 | ``ELECTROSIEVE_CATALOG_DIR`` | a whole catalog directory (same layout as ``data/``) used instead of the built-in one | built-in |
 | ``ELECTROSIEVE_MAX_BODY_BYTES`` | largest request body accepted; bigger ones get 413 | 65536 |
 | ``ELECTROSIEVE_SAVES_PER_MINUTE`` | shortlist saves per client and worker process per minute (0: no limit); more get 429 | 30 |
-| ``ELECTROSIEVE_HEAVY_REQUESTS`` | computing requests (screens, diagrams, pages) at once per worker process; more get 503 | 4 |
+| ``ELECTROSIEVE_HEAVY_REQUESTS`` | computing requests (screens, diagrams, pages) running at once per worker process | 2 |
+| ``ELECTROSIEVE_HEAVY_QUEUE`` | computing requests waiting their turn per worker process; more get 503 | 32 |
 | ``ELECTROSIEVE_TRUSTED_PROXIES`` | comma-separated addresses whose ``X-Forwarded-For``/``-Proto`` are believed | none |
 | ``ELECTROSIEVE_SQLITE_SYNCHRONOUS`` | ``NORMAL`` (survives the process dying) or ``FULL`` (also survives power loss) | ``NORMAL`` |
 
@@ -23,7 +24,8 @@ from electrosieve.engine.errors import ElectrosieveError
 DEFAULT_DATA_DIR = "var"
 DEFAULT_MAX_BODY_BYTES = 64 * 1024
 DEFAULT_SAVES_PER_MINUTE = 30
-DEFAULT_HEAVY_REQUESTS = 4
+DEFAULT_HEAVY_REQUESTS = 2
+DEFAULT_HEAVY_QUEUE = 32
 SQLITE_FILE = "electrosieve.sqlite3"
 SQLITE_SYNCHRONOUS = ("NORMAL", "FULL")
 
@@ -55,6 +57,7 @@ class Settings:
     max_body_bytes: int = DEFAULT_MAX_BODY_BYTES
     saves_per_minute: int = DEFAULT_SAVES_PER_MINUTE
     heavy_requests: int = DEFAULT_HEAVY_REQUESTS
+    heavy_queue: int = DEFAULT_HEAVY_QUEUE
     trusted_proxies: tuple[str, ...] = ()
     sqlite_synchronous: str = "NORMAL"
 
@@ -78,6 +81,7 @@ class Settings:
                                            "saves"),
             heavy_requests=_whole_number(env, "ELECTROSIEVE_HEAVY_REQUESTS", DEFAULT_HEAVY_REQUESTS, 1, 1000,
                                          "requests"),
+            heavy_queue=_whole_number(env, "ELECTROSIEVE_HEAVY_QUEUE", DEFAULT_HEAVY_QUEUE, 0, 100_000, "requests"),
             trusted_proxies=proxies,
             sqlite_synchronous=synchronous,
         )

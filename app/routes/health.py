@@ -31,9 +31,10 @@ def _probe(app_state) -> tuple[object, str]:
 async def healthz(request: Request):
     try:
         catalog, storage = await anyio.to_thread.run_sync(_probe, state(request), limiter=PROBE_THREADS)
-    except StorageError as error:  # set-up trouble or a full disk: the message is ours, safe to show
+    except StorageError as error:  # a full disk (our words), or set-up trouble naming paths and hosts: logged only
         logging.getLogger(STORAGE_LOGGER).warning("healthz: %s", error.message)
-        return JSONResponse({"detail": f"storage: {error.message}"}, status_code=503)
+        shown = error.message if error.field == "full" else "the shortlist database cannot be opened; see the log"
+        return JSONResponse({"detail": f"storage: {shown}"}, status_code=503)
     except Exception as error:  # report, do not crash: a load balancer polls this; driver details go to the log
         logging.getLogger(STORAGE_LOGGER).warning("healthz: %s: %s", type(error).__name__, error)
         return JSONResponse({"detail": f"storage: {FAILURES[failure_kind(error)]}"}, status_code=503)
