@@ -423,3 +423,59 @@ def test_a_read_only_data_dir_without_a_database_is_a_named_set_up_problem(tmp_p
         assert code == 2 and str(read_only) in err and "cannot write" in err and "report" not in err
     finally:
         unmount(read_only)
+
+
+# --- forwarded headers only from configured proxies -------------------------------------------
+
+def serve_and_save(tmp_path, env: dict, forwarded_for: list[str]) -> list[int]:
+    """Start ``electrosieve serve`` with ``env``, save once per ``X-Forwarded-For`` value; the statuses."""
+    import os
+    import subprocess
+    import sys
+    import time
+    import urllib.error
+    import urllib.request
+
+    from tests.conftest import ROOT, SERVER_START_SECONDS, free_port
+
+    port = free_port()
+    tmp_path.mkdir(parents=True, exist_ok=True)
+    environment = {k: v for k, v in os.environ.items() if not k.startswith(("ELECTROSIEVE_", "DATABASE_URL"))}
+    log = open(tmp_path / "serve.log", "wb")
+    process = subprocess.Popen([sys.executable, "-m", "electrosieve.app.cli", "serve", "--port", str(port),
+                                "--data-dir", str(tmp_path)], cwd=ROOT, env={**environment, **env},
+                               stdout=log, stderr=subprocess.STDOUT)
+    try:
+        deadline = time.monotonic() + SERVER_START_SECONDS
+        while True:
+            try:
+                urllib.request.urlopen(f"http://127.0.0.1:{port}/healthz", timeout=2).close()
+                break
+            except OSError:
+                assert time.monotonic() < deadline and process.poll() is None, (tmp_path / "serve.log").read_text()
+                time.sleep(0.1)
+        statuses = []
+        for address in forwarded_for:
+            request = urllib.request.Request(f"http://127.0.0.1:{port}/api/v1/shortlists", method="POST",
+                                             data=json.dumps(SAVE).encode(),
+                                             headers={"content-type": "application/json", "x-forwarded-for": address})
+            try:
+                with urllib.request.urlopen(request, timeout=20) as answer:
+                    statuses.append(answer.status)
+            except urllib.error.HTTPError as error:
+                statuses.append(error.code)
+        return statuses
+    finally:
+        process.terminate()
+        process.wait(timeout=15)
+        log.close()
+
+
+def test_forwarded_addresses_count_only_from_configured_proxies(tmp_path):
+    addresses = ["203.0.113.1", "203.0.113.2", "203.0.113.3"]
+    # no proxy configured: a client cannot dodge the save limit by claiming other addresses
+    assert serve_and_save(tmp_path / "direct", {"ELECTROSIEVE_SAVES_PER_MINUTE": "2"}, addresses) == [201, 201, 429]
+    # behind a configured proxy (here the loopback), each forwarded address has its own budget
+    assert serve_and_save(tmp_path / "proxied", {"ELECTROSIEVE_SAVES_PER_MINUTE": "2",
+                                                 "ELECTROSIEVE_TRUSTED_PROXIES": "127.0.0.1"},
+                          addresses) == [201, 201, 201]
