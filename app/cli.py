@@ -19,6 +19,7 @@ from electrosieve.engine.scales import canonical_scale, convert, needs_ph, to_sh
 from electrosieve.engine.screen import make_scenario, screen
 
 from . import csvcells, payloads
+from .ranges import within
 
 EXIT_BAD_INPUT = 2
 EXIT_INTERNAL = 1
@@ -33,8 +34,9 @@ class _Parser(argparse.ArgumentParser):
         raise UsageError(f"{self.prog}: {message}")
 
 
-def parse_range(text: str, field: str) -> tuple[float, float]:
-    """``"A:B"`` → (A, B); ``"A"`` → (A, A). Negative numbers work: ``--potential=-0.5:-0.2``."""
+def parse_range(text: str, field: str, kind: str) -> tuple[float, float]:
+    """``"A:B"`` → (A, B); ``"A"`` → (A, A), each in the range of ``kind`` (``app.ranges``).
+    Negative numbers work: ``--potential=-0.5:-0.2``."""
     parts = str(text).split(":")
     if len(parts) not in (1, 2) or not all(p.strip() for p in parts):
         raise InputError(f"{field} must be a number or a range A:B (given {text!r})", field=field)
@@ -42,7 +44,7 @@ def parse_range(text: str, field: str) -> tuple[float, float]:
         values = [float(p) for p in parts]
     except ValueError:
         raise InputError(f"{field} must be a number or a range A:B of numbers (given {text!r})", field=field) from None
-    low, high = values[0], values[-1]
+    low, high = (within(value, field, kind) for value in (values[0], values[-1]))
     return low, high
 
 
@@ -73,8 +75,8 @@ def _catalog(args) -> Catalog:
 
 
 def _window(args) -> Window:
-    ph = parse_range(args.window_ph, "--window-ph")
-    e = parse_range(args.window_potential, "--window-potential")
+    ph = parse_range(args.window_ph, "--window-ph", "ph")
+    e = parse_range(args.window_potential, "--window-potential", "potential")
     return Window(ph_min=ph[0], ph_max=ph[1], e_min=e[0], e_max=e[1])
 
 
@@ -135,8 +137,8 @@ def _print_diagram(payload: dict) -> None:
 def cmd_point(args) -> None:
     catalog = _catalog(args)
     temperature = check_temperature(_number(args.temperature, "--temperature"))
-    ph = _number(args.ph, "--ph")
-    potential = _number(args.potential, "--potential")
+    ph = within(_number(args.ph, "--ph"), "--ph", "ph")
+    potential = within(_number(args.potential, "--potential"), "--potential", "potential")
     result = diagram(args.element, _number(args.activity, "--activity"), temperature, _window(args), catalog=catalog)
     scale = canonical_scale(catalog.scales, args.scale)
     potential_she = to_she(catalog.scales, potential, scale, ph, temperature + 273.15)
@@ -150,10 +152,10 @@ def cmd_point(args) -> None:
 def cmd_convert(args) -> None:
     catalog = _catalog(args)
     temperature = check_temperature(_number(args.temperature, "--temperature"))
-    value = _number(args.value, "VALUE")
+    value = within(_number(args.value, "VALUE"), "VALUE", "potential")
     source = canonical_scale(catalog.scales, args.source)
     target = canonical_scale(catalog.scales, args.target)
-    ph = None if args.ph is None else _number(args.ph, "--ph")
+    ph = None if args.ph is None else within(_number(args.ph, "--ph"), "--ph", "ph")
     if ph is None and (needs_ph(catalog.scales, source) or needs_ph(catalog.scales, target)):
         raise InputError("converting to or from the RHE needs --ph", field="--ph")
     result = convert(catalog.scales, value, source, target, ph, temperature + 273.15)
@@ -192,14 +194,14 @@ def _weights(text: str | None) -> dict | None:
         key, _, value = part.partition("=")
         if not value:
             raise InputError(f"--weights must look like unacceptable=1,price=0.2 (given {text!r})", field="--weights")
-        weights[key.strip()] = _number(value, f"--weights {key.strip()}")
+        weights[key.strip()] = within(_number(value, f"--weights {key.strip()}"), f"--weights {key.strip()}", "weight")
     return weights
 
 
 def scenario_from_args(args, catalog: Catalog):
     """The screening scenario described by the command line."""
-    ph = parse_range(args.ph, "--ph")
-    potential = parse_range(args.potential, "--potential")
+    ph = parse_range(args.ph, "--ph", "ph")
+    potential = parse_range(args.potential, "--potential", "potential")
     accept = _list(args.accept)
     if accept is not None and not accept:
         raise InputError("--accept must name at least one region", field="--accept")

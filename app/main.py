@@ -19,6 +19,7 @@ from starlette.exceptions import HTTPException as StarletteHTTPException
 
 from electrosieve.engine.catalog import Catalog
 
+from .contract import tighten
 from .overload import HeavyLimit, SaveRateLimit
 from .routes import api, compare, docs, health, materials, screen, shortlists
 from .routes.common import AppState
@@ -54,6 +55,14 @@ def create_app(settings: Settings | None = None, catalog: Catalog | None = None)
                    docs.router):
         app.include_router(router)
     app.mount("/static", StaticFiles(directory=static_dir()), name="static")
+
+    plain_openapi = app.openapi
+
+    def openapi() -> dict:
+        """FastAPI's schema with the served catalog's ids as enums (``app.contract``); idempotent."""
+        return tighten(plain_openapi(), state.catalog)
+
+    app.openapi = openapi
 
     @app.get("/vendor/plotly.min.js", include_in_schema=False, response_class=Response)
     def plotly_js() -> FileResponse:

@@ -23,6 +23,7 @@ from electrosieve.engine.ranking import DEFAULT_ORDER, RANK_KEYS
 from electrosieve.engine.screen import REGIONS, ROLES
 
 from .storage import NOTE_MAX, TITLE_MAX
+from .shapes import POINT_OR_PAIR
 from .textrules import pattern_refusing, refused_characters
 
 PLOT = Window()
@@ -34,6 +35,9 @@ POTENTIAL_LIMIT = 5.0
 MATERIALS_MAX = 500
 """Most materials one request may name."""
 
+WEIGHT_MAX = 1e6
+"""Largest ranking weight."""
+
 Region = Literal[REGIONS]  # type: ignore[valid-type]
 Role = Literal[ROLES]  # type: ignore[valid-type]
 Family = Literal[FAMILIES]  # type: ignore[valid-type]
@@ -43,7 +47,7 @@ Ph = Annotated[float, Field(ge=PLOT.ph_min, le=PLOT.ph_max)]
 Potential = Annotated[float, Field(ge=-POTENTIAL_LIMIT, le=POTENTIAL_LIMIT)]
 MaterialId = Annotated[str, StringConstraints(min_length=1, max_length=64, pattern=r"^[A-Za-z][A-Za-z0-9_-]*$")]
 ScaleId = Annotated[str, StringConstraints(min_length=1, max_length=32)]
-Weight = Annotated[float, Field(ge=0, le=1e6)]
+Weight = Annotated[float, Field(ge=0, le=WEIGHT_MAX)]
 
 
 class StrictIn(BaseModel):
@@ -64,9 +68,9 @@ class Out(BaseModel):
 class ScenarioIn(StrictIn):
     """A screening scenario, in the shape ``electrosieve screen --json`` echoes under ``scenario``."""
 
-    ph: Ph | Annotated[list[Ph], Field(min_length=1, max_length=2)] = Field(
+    ph: Annotated[Ph | Annotated[list[Ph], Field(min_length=1, max_length=2)], POINT_OR_PAIR] = Field(
         description="pH point or [low, high] range", examples=[[0, 1]])
-    potential: Potential | Annotated[list[Potential], Field(min_length=1, max_length=2)] = Field(
+    potential: Annotated[Potential | Annotated[list[Potential], Field(min_length=1, max_length=2)], POINT_OR_PAIR] = Field(
         description="potential point or [low, high] range [V on `scale`]", examples=[[-0.2, 0.0]])
     scale: ScaleId = Field("SHE", description="reference scale of `potential` (see /api/v1/scales)")
     activity: Annotated[float, Field(ge=ACTIVITY_RANGE[0], le=ACTIVITY_RANGE[1])] = Field(

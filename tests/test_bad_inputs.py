@@ -75,7 +75,7 @@ CLI_CASES = [
     CliCase("diagram: negative activity", ["diagram", "Zn", "--activity", "-1"], "activity"),
     CliCase("diagram: empty pH window", ["diagram", "Zn", "--window-ph", "5:5"], "pH window"),
     CliCase("diagram: inverted pH window", ["diagram", "Zn", "--window-ph", "5:1"], "pH window"),
-    CliCase("diagram: NaN in the potential window", ["diagram", "Zn", "--window-potential", "nan:1"], "e_min"),
+    CliCase("diagram: NaN in the potential window", ["diagram", "Zn", "--window-potential", "nan:1"], "--window-potential"),
     CliCase("diagram: temperature below absolute zero", ["diagram", "Zn", "--temperature", "-300"], "temperature"),
     CliCase("diagram: unknown figure type", ["diagram", "Zn", "--out", "figure.bmp"], "--out"),
     CliCase("point: NaN pH", ["point", "Zn", "--ph", "nan", "--potential", "0"], "ph"),

@@ -479,3 +479,61 @@ def test_forwarded_addresses_count_only_from_configured_proxies(tmp_path):
     assert serve_and_save(tmp_path / "proxied", {"ELECTROSIEVE_SAVES_PER_MINUTE": "2",
                                                  "ELECTROSIEVE_TRUSTED_PROXIES": "127.0.0.1"},
                           addresses) == [201, 201, 201]
+
+
+# --- every number in range, at every door; shapes told as shapes; a schema clients can trust ----
+
+@pytest.mark.parametrize("argv, field", [
+    (["convert", "1e308", "--from", "SHE", "--to", "SCE"], "VALUE"),
+    (["convert", "1", "--from", "SHE", "--to", "RHE", "--ph", "1e308"], "--ph"),
+    (["point", "Zn", "--ph", "1e308", "--potential", "0"], "--ph"),
+    (["point", "Zn", "--ph", "7", "--potential", "9"], "--potential"),
+    (["screen", "--ph", "0", "--potential", "0:1e308"], "--potential"),
+    (["screen", "--ph", "0:17", "--potential", "0"], "--ph"),
+    (["screen", "--ph", "0", "--potential", "0", "--weights", "price=1e308"], "--weights price"),
+    (["screen", "--ph", "nan", "--potential", "0"], "--ph"),
+    (["diagram", "Zn", "--window-ph", "0:1e308", "--json"], "--window-ph"),
+    (["diagram", "Zn", "--window-potential=-1e308:1", "--json"], "--window-potential"),
+])
+def test_cli_numbers_are_range_checked_as_the_api_checks_them(argv, field, capsys):
+    code, err = run_cli(argv, capsys)
+    out = capsys.readouterr().out
+    assert code == 2 and err.startswith(f"error: {field} must be between") and len(err) < 200, err
+    assert not out
+
+
+@pytest.mark.parametrize("value, given", [([1, 2, 3], "a list of 3"), ([], "an empty list"), ("7", "text"),
+                                          (None, "null"), ({"low": 1}, "an object")])
+def test_a_point_or_range_of_the_wrong_shape_is_told_so(client, value, given):
+    for field in ("ph", "potential"):
+        body = {"ph": 7, "potential": 0.0, field: value}
+        answer = client.post("/api/v1/screen", json=body)
+        assert answer.status_code == 422
+        assert answer.json()["detail"] == [{"loc": ["body", field], "type": "point_or_pair",
+                                            "msg": f"{field}: must be one number or a pair [low, high] (given {given})"}]
+
+
+def test_the_openapi_schema_lists_the_catalogs_ids_and_each_is_accepted(client):
+    from electrosieve.engine.catalog import default_catalog
+
+    catalog = default_catalog()
+    schema = client.get("/openapi.json").json()
+
+    def parameter(path, name):
+        return next(p for p in schema["paths"][path]["get"]["parameters"] if p["name"] == name)["schema"]
+
+    elements = parameter("/api/v1/diagram/{element}", "element")["enum"]
+    assert elements == sorted(catalog.systems)
+    assert all(client.get(f"/api/v1/sources/{element}").status_code == 200 for element in elements)
+    scales = parameter("/api/v1/point/{element}", "scale")["enum"]
+    assert scales == list(catalog.scales)
+    scenario = schema["components"]["schemas"]["ScenarioIn"]["properties"]
+    ids = scenario["materials"]["anyOf"][0]["items"]["enum"]
+    assert ids == list(catalog.materials) and scenario["scale"]["enum"] == scales
+    assert client.post("/api/v1/screen", json={"ph": 7, "potential": 0.0, "materials": ids}).status_code == 200
+    for scale in scales:
+        assert client.post("/api/v1/screen", json={"ph": 7, "potential": 0.0, "scale": scale}).status_code == 200
+    notes = schema["components"]["schemas"]["ShortlistCreate"]["properties"]["notes"]
+    assert notes["propertyNames"]["enum"] == ids
+    assert parameter("/compare.json", "compare")["items"]["enum"] == ids
+    assert parameter("/s/{shortlist_id}.json", "shortlist_id")["pattern"] == "^[A-Za-z0-9_-]{16}$"

@@ -13,7 +13,7 @@ from .. import payloads, urls
 from ..models import (DiagramOut, MaterialOut, PLOT, POTENTIAL_LIMIT, PointOut, ScaleOut, ScenarioIn, ScreenResult,
                       ShortlistCreate, ShortlistCreated, ShortlistPublic, SourcesOut)
 from .common import BODY_RESPONSES, ERROR_RESPONSES, Unprocessable, engine_error, get_catalog, get_storage, run_screen
-from .shortlists import create_shortlist, find_shortlist, shortlist_public
+from .shortlists import SAVE_REFUSALS, create_shortlist, find_shortlist, shortlist_public
 
 router = APIRouter(prefix=urls.API, tags=["api"])
 
@@ -85,7 +85,7 @@ def screen_json(scenario: ScenarioIn, catalog: Catalog = Depends(get_catalog)):
     return run_screen(scenario, catalog)
 
 
-@router.post("/shortlists", response_model=ShortlistCreated, status_code=201, responses=BODY_RESPONSES,
+@router.post("/shortlists", response_model=ShortlistCreated, status_code=201, responses={**BODY_RESPONSES, **SAVE_REFUSALS},
              summary="Save a ranked shortlist; returns its id and link")
 def shortlists_create(body: ShortlistCreate, response: Response, catalog: Catalog = Depends(get_catalog),
                       storage=Depends(get_storage)) -> ShortlistCreated:

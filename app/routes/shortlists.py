@@ -18,15 +18,23 @@ from pydantic import ValidationError
 from electrosieve.engine.catalog import Catalog
 
 from .. import urls
-from ..models import (FieldError, RankCheck, ScenarioIn, ShortlistCreate, ShortlistLinks, ShortlistPublic, ViewQuery,
-                      field_errors)
 from ..cautions import CAUTIONS
+from ..models import (ErrorBody, FieldError, RankCheck, ScenarioIn, ShortlistCreate, ShortlistLinks, ShortlistPublic, ViewQuery,
+                      field_errors)
 from ..storage import ID_PATTERN, NOTES_TOTAL_MAX, StoredShortlist, load_shortlist, save_shortlist
 from .common import (BODY_RESPONSES, CSV_RESPONSES, ERROR_RESPONSES, HTML_RESPONSES, Unprocessable, csv_response, get_catalog,
                      get_storage, not_found, render, run_screen)
 from .screen import result_citations
 
 router = APIRouter(tags=["pages"])
+
+SAVE_REFUSALS = {
+    403: {"model": ErrorBody, "description": "sent from another site's page (Origin / Sec-Fetch-Site)"},
+    429: {"model": ErrorBody, "description": "too many saves from this address; see Retry-After"},
+    503: {"model": ErrorBody, "description": "busy, or the database is unavailable or read-only; see Retry-After"},
+    507: {"model": ErrorBody, "description": "the disk holding the database is full"},
+}
+"""The refusals a save may get besides bad input (``app.overload``, ``app.routes.http``)."""
 
 NOTE_FIELD_PREFIX = "note_"
 """The save form's note fields are ``note_<material id>``."""
@@ -186,7 +194,7 @@ def shortlist_html(request: Request, shortlist_id: str, catalog: Catalog = Depen
 
 @router.post("/shortlists", response_class=RedirectResponse, response_model=None, status_code=303,
              responses={303: {"description": "saved: go to the new shortlist's page"}, **HTML_RESPONSES,
-                        400: BODY_RESPONSES[400], 413: ERROR_RESPONSES[413]},
+                        400: BODY_RESPONSES[400], 413: ERROR_RESPONSES[413], **SAVE_REFUSALS},
              summary="Save a shortlist from the screen page's form (without JavaScript)")
 async def shortlist_form(request: Request, catalog: Catalog = Depends(get_catalog), storage=Depends(get_storage)):
     form = await request.form()
