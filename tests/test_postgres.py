@@ -261,3 +261,23 @@ def test_postgres_instances_starting_together_on_a_new_database_all_come_up(pg_u
                 connection.execute(text(f'DROP SCHEMA "{schema}" CASCADE'))
     finally:
         admin.dispose()
+
+
+def test_postgres_connections_cut_by_a_restart_are_replaced_without_an_error(pg_url, tmp_path):
+    # a database restart ends every open connection: the next requests check theirs and reconnect
+    from sqlalchemy import create_engine, text
+
+    with TestClient(create_app(Settings(data_dir=tmp_path, database_url=pg_url), catalog=CATALOG)) as client:
+        created = client.post("/api/v1/shortlists", json={"title": "before the restart", "scenario": SCENARIO})
+        assert created.status_code == 201
+        admin = create_engine(pg_url)
+        with admin.begin() as connection:
+            ended = connection.execute(text(
+                "SELECT count(pg_terminate_backend(pid)) FROM pg_stat_activity "
+                "WHERE datname = current_database() AND pid <> pg_backend_pid() AND usename = current_user")).scalar()
+        admin.dispose()
+        assert ended >= 1
+        assert client.get("/healthz").json()["storage"] == "ok"
+        assert client.get(f"/api/v1/shortlists/{created.json()['id']}").status_code == 200
+        assert client.post("/api/v1/shortlists", json={"title": "after", "scenario": SCENARIO}).status_code == 201
+
