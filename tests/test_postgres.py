@@ -266,15 +266,18 @@ def test_postgres_instances_starting_together_on_a_new_database_all_come_up(pg_u
 def test_postgres_connections_cut_by_a_restart_are_replaced_without_an_error(pg_url, tmp_path):
     # a database restart ends every open connection: the next requests check theirs and reconnect
     from sqlalchemy import create_engine, text
+    from sqlalchemy.engine import make_url
 
-    with TestClient(create_app(Settings(data_dir=tmp_path, database_url=pg_url), catalog=CATALOG)) as client:
+    app_url = make_url(pg_url).update_query_dict({"application_name": "electrosieve_restart"})
+    app_url = app_url.render_as_string(hide_password=False)
+    with TestClient(create_app(Settings(data_dir=tmp_path, database_url=app_url), catalog=CATALOG)) as client:
         created = client.post("/api/v1/shortlists", json={"title": "before the restart", "scenario": SCENARIO})
         assert created.status_code == 201
         admin = create_engine(pg_url)
         with admin.begin() as connection:
             ended = connection.execute(text(
                 "SELECT count(pg_terminate_backend(pid)) FROM pg_stat_activity "
-                "WHERE datname = current_database() AND pid <> pg_backend_pid() AND usename = current_user")).scalar()
+                "WHERE application_name = 'electrosieve_restart'")).scalar()
         admin.dispose()
         assert ended >= 1
         assert client.get("/healthz").json()["storage"] == "ok"
