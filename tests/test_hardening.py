@@ -185,6 +185,11 @@ def test_form_posts_from_another_site_are_refused(client):
         assert client.post("/api/v1/shortlists", json=SAVE, headers=headers).status_code == 403
     own = {"origin": "http://testserver", "sec-fetch-site": "same-origin"}
     assert client.post("/shortlists", data=form, headers=own, follow_redirects=False).status_code == 303
+    # behind a proxy that rewrites Host, a browser's own same-origin post still passes
+    proxied = {"origin": "https://lab.example", "sec-fetch-site": "same-origin"}
+    assert client.post("/shortlists", data=form, headers=proxied, follow_redirects=False).status_code == 303
+    assert client.post("/shortlists", data=form, headers={"origin": "http://testserver"},
+                       follow_redirects=False).status_code == 303
     assert client.post("/shortlists", data=form, follow_redirects=False).status_code == 303  # no browser headers
 
 

@@ -345,9 +345,10 @@ UNSAFE_METHODS = ("POST", "PUT", "PATCH", "DELETE")
 class SameOriginPosts:
     """ASGI middleware refusing (403) a state-changing request sent by another site's page.
 
-    Browsers say where a request comes from: ``Sec-Fetch-Site`` (anything but ``same-origin`` or
-    ``none`` is foreign) and ``Origin`` (its host must be the ``Host`` asked for). Clients that send
-    neither (scripts, curl) are not browsers carrying a visitor's session and pass."""
+    Browsers say where a request comes from: ``Sec-Fetch-Site`` decides when sent (anything but
+    ``same-origin`` or ``none`` is foreign); browsers without it send ``Origin``, whose host must then be
+    the ``Host`` asked for (a reverse proxy must pass ``Host`` through). Clients that send neither
+    (scripts, curl) are not browsers carrying a visitor's session and pass."""
 
     def __init__(self, app):
         self.app = app
@@ -358,9 +359,11 @@ class SameOriginPosts:
         headers = {name.lower(): value.decode("latin-1") for name, value in scope.get("headers", [])}
         site = headers.get(b"sec-fetch-site", "").strip().lower()
         origin = headers.get(b"origin", "").strip()
-        foreign = site not in ("", "same-origin", "none")
-        if not foreign and origin:
-            foreign = origin == "null" or urlsplit(origin).netloc.lower() != headers.get(b"host", "").lower()
+        if site:
+            foreign = site not in ("same-origin", "none")
+        else:
+            foreign = bool(origin) and (origin == "null"
+                                        or urlsplit(origin).netloc.lower() != headers.get(b"host", "").lower())
         if foreign:
             response = error_response(Request(scope, receive), 403, [{
                 "loc": ["header", "origin"], "type": "cross_origin",
