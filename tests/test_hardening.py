@@ -542,3 +542,9 @@ def test_the_openapi_schema_lists_the_catalogs_ids_and_each_is_accepted(client):
     assert notes["propertyNames"]["enum"] == ids
     assert parameter("/compare.json", "compare")["items"]["enum"] == ids
     assert parameter("/s/{shortlist_id}.json", "shortlist_id")["pattern"] == "^[A-Za-z0-9_-]{16}$"
+
+
+def test_a_bad_item_in_a_range_is_named_once(client):
+    answer = client.post("/api/v1/screen", json={"ph": [1, "a"], "potential": 0.0})
+    assert answer.json()["detail"] == [{"loc": ["body", "ph", 1], "msg": "ph.1: Input should be a valid number",
+                                        "type": "float_type"}]

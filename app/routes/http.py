@@ -227,6 +227,10 @@ async def validation_error(request: Request, error: RequestValidationError):
         name = ".".join(str(p) for p in cleaned) or str(where)
         errors.append(FieldError(loc=[where, *cleaned], msg=f"{name}: {item.get('msg', 'invalid')}",
                                  type=str(item.get("type", "value_error"))))
+    # a union (number or list) tried both arms: when the list arm names an item, the number arm's
+    # complaint about the whole field is noise
+    itemised = {tuple(e.loc[:-1]) for e in errors if len(e.loc) > 2 and isinstance(e.loc[-1], int)}
+    errors = [e for e in errors if not (tuple(e.loc) in itemised and e.type == "float_type")]
     return error_response(request, 422, [e.model_dump() for e in errors])
 
 
