@@ -17,7 +17,8 @@ from electrosieve.engine.errors import ElectrosieveError, InputError
 from electrosieve.engine.scales import canonical_scale, convert, needs_ph
 from electrosieve.engine.screen import screen
 
-from . import payloads
+from . import csvcells, payloads
+from .ranges import within
 from .viewstate import cli_scenario, deprecated, parse_number, parse_range
 
 EXIT_BAD_INPUT = 2
@@ -61,8 +62,8 @@ def _catalog(args) -> Catalog:
 
 
 def _limits(args) -> PlotLimits:
-    ph = parse_range(args.ph_limits, "--ph-limits")
-    e = parse_range(args.potential_limits, "--potential-limits")
+    ph = parse_range(args.ph_limits, "--ph-limits", kind="ph")
+    e = parse_range(args.potential_limits, "--potential-limits", kind="potential")
     return PlotLimits(ph_min=ph[0], ph_max=ph[1], e_min=e[0], e_max=e[1])
 
 
@@ -124,8 +125,8 @@ def _print_diagram(payload: dict) -> None:
 def cmd_point(args) -> None:
     catalog = _catalog(args)
     temperature = check_temperature(parse_number(args.temperature, "--temperature"))
-    ph = parse_number(args.ph, "--ph")
-    potential = parse_number(args.potential, "--potential")
+    ph = within(parse_number(args.ph, "--ph"), "--ph", "ph")
+    potential = within(parse_number(args.potential, "--potential"), "--potential", "potential")
     result = diagram(args.element, parse_number(args.activity, "--activity"), temperature, _limits(args), catalog=catalog)
     payload = payloads.point_payload(stable_at(result, catalog.scales, ph, potential, args.scale))
     _emit(args, payload, lambda p: print(
@@ -136,10 +137,10 @@ def cmd_point(args) -> None:
 def cmd_convert(args) -> None:
     catalog = _catalog(args)
     temperature = check_temperature(parse_number(args.temperature, "--temperature"))
-    value = parse_number(args.value, "VALUE")
+    value = within(parse_number(args.value, "VALUE"), "VALUE", "potential")
     source = canonical_scale(catalog.scales, args.source)
     target = canonical_scale(catalog.scales, args.target)
-    ph = None if args.ph is None else parse_number(args.ph, "--ph")
+    ph = None if args.ph is None else within(parse_number(args.ph, "--ph"), "--ph", "ph")
     if ph is None and (needs_ph(catalog.scales, source) or needs_ph(catalog.scales, target)):
         raise InputError("converting to or from the RHE needs --ph", field="--ph")
     result = convert(catalog.scales, value, source, target, ph, temperature + 273.15)
@@ -167,11 +168,7 @@ def cmd_scales(args) -> None:
 
 
 def write_csv(result: dict, stream) -> None:
-    import csv
-
-    writer = csv.DictWriter(stream, fieldnames=payloads.CSV_COLUMNS, lineterminator="\n")
-    writer.writeheader()
-    writer.writerows(payloads.csv_rows(result))
+    csvcells.write_csv(stream, payloads.CSV_COLUMNS, payloads.csv_rows(result))
 
 
 def cmd_screen(args) -> None:

@@ -14,14 +14,19 @@ from fastapi import FastAPI
 from fastapi.exceptions import RequestValidationError
 from fastapi.responses import FileResponse, Response
 from fastapi.staticfiles import StaticFiles
+from sqlalchemy.exc import SQLAlchemyError
 from starlette.exceptions import HTTPException as StarletteHTTPException
 
 from electrosieve.engine.catalog import Catalog
 
+from .contract import tighten
+from .overload import HeavyLimit, SaveRateLimit
 from .routes import api, compare, docs, health, materials, screen, shortlists
 from .routes.common import AppState
-from .routes.http import BodyLimit, RequestLog, SecurityHeaders, http_error, unexpected_error, validation_error
+from .routes.http import (BodyLimit, HeadAsGet, RelativeRedirects, RequestLog, SameOriginPosts, SecurityHeaders,
+                          http_error, storage_error, storage_setup_error, unexpected_error, validation_error)
 from .settings import Settings
+from .storage import StorageError
 
 PLOTLY_JS = Path(plotly.__file__).resolve().parent / "package_data" / "plotly.min.js"
 """The plotly wheel's own plotly.min.js, served at /vendor/plotly.min.js (no CDN needed); nothing else there is served."""
@@ -51,16 +56,32 @@ def create_app(settings: Settings | None = None, catalog: Catalog | None = None)
         app.include_router(router)
     app.mount("/static", StaticFiles(directory=static_dir()), name="static")
 
+    plain_openapi = app.openapi
+
+    def openapi() -> dict:
+        """FastAPI's schema with the served catalog's ids as enums (``app.contract``); idempotent."""
+        return tighten(plain_openapi(), state.catalog)
+
+    app.openapi = openapi
+
     @app.get("/vendor/plotly.min.js", include_in_schema=False, response_class=Response)
     def plotly_js() -> FileResponse:
         return FileResponse(PLOTLY_JS, media_type="text/javascript", headers={"Cache-Control": "public, max-age=86400"})
 
     app.add_exception_handler(RequestValidationError, validation_error)
     app.add_exception_handler(StarletteHTTPException, http_error)
+    app.add_exception_handler(SQLAlchemyError, storage_error)
+    app.add_exception_handler(StorageError, storage_setup_error)
     app.add_exception_handler(Exception, unexpected_error)
+    # innermost first: each refusal (413, 503 busy, 429, 403) is cheap and still gets the security headers
     app.add_middleware(BodyLimit, max_bytes=settings.max_body_bytes)
+    app.add_middleware(HeavyLimit, limit=settings.heavy_requests, queue=settings.heavy_queue)
+    app.add_middleware(SaveRateLimit, per_minute=settings.saves_per_minute)
+    app.add_middleware(SameOriginPosts)
+    app.add_middleware(RelativeRedirects)
     app.add_middleware(SecurityHeaders)
-    app.add_middleware(RequestLog)  # outermost: times everything, 413s included
+    app.add_middleware(HeadAsGet)
+    app.add_middleware(RequestLog)  # outermost: times everything, refusals included
     return app
 
 

@@ -23,6 +23,8 @@ from electrosieve.engine.ranking import DEFAULT_ORDER, RANK_KEYS
 from electrosieve.engine.screen import REGIONS, ROLES
 
 from .storage import NOTE_MAX, TITLE_MAX
+from .shapes import POINT_OR_PAIR
+from .textrules import pattern_refusing, refused_characters
 
 PLOT = PlotLimits()
 """The diagram window every screen uses (pH and E vs SHE limits)."""
@@ -33,6 +35,9 @@ POTENTIAL_LIMIT = 5.0
 MATERIALS_MAX = 500
 """Most materials one request may name."""
 
+WEIGHT_MAX = 1e6
+"""Largest ranking weight."""
+
 Region = Literal[REGIONS]  # type: ignore[valid-type]
 Role = Literal[ROLES]  # type: ignore[valid-type]
 Family = Literal[FAMILIES]  # type: ignore[valid-type]
@@ -42,7 +47,7 @@ Ph = Annotated[float, Field(ge=PLOT.ph_min, le=PLOT.ph_max)]
 Potential = Annotated[float, Field(ge=-POTENTIAL_LIMIT, le=POTENTIAL_LIMIT)]
 MaterialId = Annotated[str, StringConstraints(min_length=1, max_length=64, pattern=r"^[A-Za-z][A-Za-z0-9_-]*$")]
 ScaleId = Annotated[str, StringConstraints(min_length=1, max_length=32)]
-Weight = Annotated[float, Field(ge=0, le=1e6)]
+Weight = Annotated[float, Field(ge=0, le=WEIGHT_MAX)]
 
 
 class StrictIn(BaseModel):
@@ -63,9 +68,9 @@ class Out(BaseModel):
 class ScenarioIn(StrictIn):
     """A screening scenario, in the shape ``electrosieve screen --json`` echoes under ``scenario``."""
 
-    ph: Ph | Annotated[list[Ph], Field(min_length=1, max_length=2)] = Field(
+    ph: Annotated[Ph | Annotated[list[Ph], Field(min_length=1, max_length=2)], POINT_OR_PAIR] = Field(
         description="pH point or [low, high] range", examples=[[0, 1]])
-    potential: Potential | Annotated[list[Potential], Field(min_length=1, max_length=2)] = Field(
+    potential: Annotated[Potential | Annotated[list[Potential], Field(min_length=1, max_length=2)], POINT_OR_PAIR] = Field(
         description="potential point or [low, high] range [V on `scale`]", examples=[[-0.2, 0.0]])
     scale: ScaleId = Field("SHE", description="reference scale of `potential` (see /api/v1/scales)")
     activity: Annotated[float, Field(ge=ACTIVITY_RANGE[0], le=ACTIVITY_RANGE[1])] = Field(
@@ -311,26 +316,25 @@ class Health(Out):
 # --- shortlists ------------------------------------------------------------------------
 
 def _refuse_control_characters(allowed: str):
-    """A validator refusing C0 control characters (NUL included) and DEL, except those in ``allowed``.
-
-    PostgreSQL cannot store NUL in text at all, and no title needs a control character."""
+    """A validator refusing C0 control characters (NUL included), DEL and bidirectional formatting
+    characters, except the control characters in ``allowed`` (``app.textrules``)."""
     def check(text: str) -> str:
-        bad = sorted({c for c in text if (ord(c) < 32 or ord(c) == 127) and c not in allowed})
+        bad = refused_characters(text, allowed)
         if bad:
             raise PydanticCustomError("control_characters",
-                                      "must not contain control characters (given {found})",
-                                      {"found": ", ".join(f"U+{ord(c):04X}" for c in bad)})
+                                      "must not contain control or text-direction characters (given {found})",
+                                      {"found": ", ".join(bad)})
         return text
     return AfterValidator(check)
 
 
 Title = Annotated[str, StringConstraints(strip_whitespace=True, min_length=1, max_length=TITLE_MAX),
                   _refuse_control_characters(""), WithJsonSchema({
-                      "type": "string", "minLength": 1, "maxLength": TITLE_MAX, "pattern": "^[^\\u0000-\\u001f\\u007f]*$",
-                      "description": "one line of text; control characters are refused"})]
+                      "type": "string", "minLength": 1, "maxLength": TITLE_MAX, "pattern": pattern_refusing("\\u0000-\\u001f\\u007f"),
+                      "description": "one line of text; control and text-direction characters are refused"})]
 Note = Annotated[str, StringConstraints(max_length=NOTE_MAX), _refuse_control_characters("\t\n\r"), WithJsonSchema({
-    "type": "string", "maxLength": NOTE_MAX, "pattern": "^[^\\u0000-\\u0008\\u000b\\u000c\\u000e-\\u001f\\u007f]*$",
-    "description": "free text; tabs and line breaks allowed, other control characters refused"})]
+    "type": "string", "maxLength": NOTE_MAX, "pattern": pattern_refusing("\\u0000-\\u0008\\u000b\\u000c\\u000e-\\u001f\\u007f"),
+    "description": "free text; tabs and line breaks allowed, other control and text-direction characters refused"})]
 
 
 class ShortlistCreate(StrictIn):

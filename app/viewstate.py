@@ -22,6 +22,7 @@ from electrosieve.engine.ranking import DEFAULT_ORDER
 from electrosieve.engine.screen import Scenario, make_scenario
 
 from .models import FieldError, ScenarioIn
+from .ranges import within
 
 
 def parse_number(text, field: str, *, finite: bool = True) -> float:
@@ -40,9 +41,10 @@ def parse_number(text, field: str, *, finite: bool = True) -> float:
     return value
 
 
-def parse_range(text: str, field: str) -> tuple[float, float]:
-    """``"A:B"`` → (A, B); ``"A"`` → (A, A). Negative numbers work: ``--potential=-0.5:-0.2``. Finiteness and
-    order are the engine's checks, which name the scenario's own field.
+def parse_range(text: str, field: str, kind: str | None = None) -> tuple[float, float]:
+    """``"A:B"`` → (A, B); ``"A"`` → (A, A). Negative numbers work: ``--potential=-0.5:-0.2``. With ``kind``
+    (``"ph"``, ``"potential"``) each end must lie in that kind's range, as the API's models require
+    (``app.ranges``); order is the engine's check, which names the scenario's own field.
 
     >>> parse_range("-0.5:-0.2", "--potential")
     (-0.5, -0.2)
@@ -54,6 +56,8 @@ def parse_range(text: str, field: str) -> tuple[float, float]:
         values = [parse_number(p, field, finite=False) for p in parts]
     except InputError:
         raise InputError(f"{field} must be a number or a range A:B of numbers (given {text!r})", field=field) from None
+    if kind is not None:
+        values = [within(value, field, kind) for value in values]
     return values[0], values[-1]
 
 
@@ -102,11 +106,13 @@ def cli_scenario(*, ph: str, potential: str, scale: str, activity: str, temperat
     accepted = parse_list(accept)
     if accepted is not None and not accepted:
         raise InputError("--accept must name at least one region", field="--accept")
+    weighed = None if weights is None else {key: within(weight, f"--weights {key}", "weight")
+                                            for key, weight in parse_weights(weights, "--weights").items()}
     return make_scenario(
-        ph=list(parse_range(ph, "--ph")), potential=list(parse_range(potential, "--potential")), scale=scale,
-        activity=parse_number(activity, "--activity"), temperature=parse_number(temperature, "--temperature"),
+        ph=list(parse_range(ph, "--ph", kind="ph")), potential=list(parse_range(potential, "--potential", kind="potential")),
+        scale=scale, activity=parse_number(activity, "--activity"), temperature=parse_number(temperature, "--temperature"),
         role=role, accept=accepted, materials=parse_list(materials), family=family, rank_by=parse_list(rank_by),
-        weights=None if weights is None else parse_weights(weights, "--weights"), catalog=catalog)
+        weights=weighed, catalog=catalog)
 
 
 UNION_TAG = re.compile(r"^(float|int|str|bool|none|list\[.*\]|dict\[.*\]|literal\[.*\]|function-.*|constrained-.*)$")

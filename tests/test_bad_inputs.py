@@ -75,7 +75,7 @@ CLI_CASES = [
     CliCase("diagram: negative activity", ["diagram", "Zn", "--activity", "-1"], "activity"),
     CliCase("diagram: empty pH limits", ["diagram", "Zn", "--ph-limits", "5:5"], "pH limits"),
     CliCase("diagram: inverted pH limits", ["diagram", "Zn", "--ph-limits", "5:1"], "pH limits"),
-    CliCase("diagram: NaN in the potential limits", ["diagram", "Zn", "--potential-limits", "nan:1"], "e_min"),
+    CliCase("diagram: NaN in the potential limits", ["diagram", "Zn", "--potential-limits", "nan:1"], "--potential-limits"),
     CliCase("diagram: temperature below absolute zero", ["diagram", "Zn", "--temperature", "-300"], "temperature"),
     CliCase("diagram: unknown figure type", ["diagram", "Zn", "--out", "figure.bmp"], "--out"),
     CliCase("point: NaN pH", ["point", "Zn", "--ph", "nan", "--potential", "0"], "ph"),

@@ -177,7 +177,7 @@ def test_materials_and_sources_json(capsys):
     (["screen", "--ph", "7", "--potential", "0", "--json", "--csv"], "one of --json and --csv"),
     (["screen", "--ph", "7", "--potential", "0", "--accept", ","], "at least one region"),
     (["screen", "--ph", "7", "--potential", "0", "--weights", "price"], "--weights must look like"),
-    (["screen", "--ph", "7", "--potential", "9"], "diagram's -3 to 3 V"),
+    (["screen", "--ph", "7", "--potential", "9"], "--potential must be between -5 and 5 V"),
     (["screen", "--ph", "7", "--potential", "0", "--scale", "NHE"], "unknown reference scale"),
     (["sources", "Xx"], "unknown element"),
 ])

@@ -63,6 +63,7 @@ class CliServer:
         self.url = f"http://127.0.0.1:{self.port}"
         self.log = data_dir / "serve.log"
         env = {k: v for k, v in os.environ.items() if k not in ("DATABASE_URL", "ELECTROSIEVE_CATALOG_DIR")}
+        env["ELECTROSIEVE_SAVES_PER_MINUTE"] = "0"  # many saves from one address on purpose: no rate limit here
         self._log_file = open(self.log, "wb")
         self.process = subprocess.Popen(
             [sys.executable, "-m", "electrosieve.app.cli", "serve", "--host", "127.0.0.1", "--port", str(self.port),
@@ -183,3 +184,55 @@ def test_many_shortlists_saved_at_once_are_distinct_and_readable(cli_server):
     assert len(saves) == len(saved) and {line["status"] for line in saves} == {201}
     assert {line["pid"] for line in saves} <= server.worker_pids
     assert len(server.worker_pids) == WORKERS
+
+
+HEAVY_CLIENTS = 12
+PROBE_TIMEOUT = 2.0
+"""A load balancer's probe timeout [s]: /healthz must answer within it whatever else runs."""
+
+
+def test_heavy_pages_beyond_the_limit_get_a_quick_503_and_healthz_still_answers(tmp_path, start_server):
+    # one computation at a time and one waiting: of twelve uncached compare pages asked at once, most are
+    # told to come back (503 + Retry-After) at once, and the health probe answers throughout
+    import urllib.error
+    import urllib.request
+
+    server = start_server(tmp_path, env={"ELECTROSIEVE_HEAVY_REQUESTS": "1", "ELECTROSIEVE_HEAVY_QUEUE": "1"})
+    start = threading.Barrier(HEAVY_CLIENTS + 1, timeout=HTTP_TIMEOUT)
+    answers, probes = [], []
+    lock = threading.Lock()
+
+    def heavy(number: int) -> None:
+        query = (f"ph_low={number * 0.37:.2f}&ph_high={number * 0.37 + 2:.2f}&potential_low=-0.5&potential_high=1.2"
+                 "&compare=Pt&compare=Ni&compare=Zn&compare=Cu")
+        start.wait()
+        try:
+            with urllib.request.urlopen(f"{server.url}/compare.json?{query}", timeout=HTTP_TIMEOUT) as answer:
+                outcome = (answer.status, None)
+        except urllib.error.HTTPError as error:
+            outcome = (error.code, error.headers.get("retry-after"))
+        with lock:
+            answers.append(outcome)
+
+    def probe() -> None:
+        start.wait()
+        for _ in range(10):
+            try:
+                with urllib.request.urlopen(f"{server.url}/healthz", timeout=PROBE_TIMEOUT) as answer:
+                    probes.append(answer.status)
+            except (OSError, urllib.error.HTTPError) as error:
+                probes.append(repr(error))
+            time.sleep(0.05)
+
+    threads = [threading.Thread(target=heavy, args=(n,), daemon=True) for n in range(HEAVY_CLIENTS)]
+    threads.append(threading.Thread(target=probe, daemon=True))
+    for thread in threads:
+        thread.start()
+    for thread in threads:
+        thread.join(timeout=HTTP_TIMEOUT * 2)
+        assert not thread.is_alive()
+    assert probes == [200] * 10, probes
+    statuses = sorted(status for status, _ in answers)
+    assert len(answers) == HEAVY_CLIENTS and set(statuses) <= {200, 503}, statuses
+    assert statuses.count(200) >= 1 and statuses.count(503) >= 1, statuses
+    assert all(retry == "1" for status, retry in answers if status == 503)

@@ -143,14 +143,45 @@ def test_the_scenario_echo_is_a_body_the_api_accepts_again():
     assert scenario_payload(make_scenario(**echo)) == echo
 
 
-def test_a_shortlist_saved_with_a_since_retired_row_field_still_reads(client, spec):
-    from electrosieve.app.settings import Settings
-    from electrosieve.app.storage import open_storage, save_shortlist
+def store_as_saved(client, shortlist_id: str, layout: int, scenario: dict, result: dict) -> None:
+    """Write a shortlist row as an older release wrote it (layout 1: the whole screen result; 2: the compact record)."""
+    import json
 
+    from sqlalchemy import insert
+
+    from electrosieve.app.storage import shortlists
+
+    with client.app.state.electrosieve.storage.begin() as connection:
+        connection.execute(insert(shortlists).values(
+            id=shortlist_id, title="saved by an older release", created_at="2026-01-01T00:00:00+00:00",
+            catalog_version=result["catalog_version"], format=layout, scenario=json.dumps(scenario),
+            result=json.dumps(result), notes="{}"))
+
+
+def test_a_whole_record_with_a_since_retired_field_and_without_a_since_added_region_still_reads(client, spec):
     result = client.post("/api/v1/screen", json=SCENARIO).json()
-    result["results"][0]["retired_field"] = 1.0  # as an older release might have stored it (test data)
-    storage = open_storage(url=Settings(data_dir=client.app.state.electrosieve.settings.data_dir).storage_url)
-    stored = save_shortlist(engine=storage, title="older", scenario=result["scenario"], result=result, notes={})
-    body = client.get(f"/api/v1/shortlists/{stored.id}")
+    for row in result["results"]:  # as an older release might have stored it (test data)
+        row["retired_field"] = 1.0
+        del row["fractions"]["hydride"]
+    store_as_saved(client, "WholeRecordOld01", 1, result["scenario"], result)
+    body = client.get("/api/v1/shortlists/WholeRecordOld01")
     assert body.status_code == 200
     assert problems(body.json(), declared(spec, "/api/v1/shortlists/{shortlist_id}"), spec) == []
+    assert all(row["fractions"]["hydride"] == 0.0 for row in body.json()["results"])
+    assert client.get("/s/WholeRecordOld01.csv").status_code == 200
+
+
+def test_a_compact_record_with_a_since_retired_column_and_without_a_since_added_region_still_reads(client, spec):
+    from electrosieve.app.shortlists import compact_record
+
+    result = client.post("/api/v1/screen", json=SCENARIO).json()
+    record = compact_record(result)
+    gone = record["columns"].index("hydride")  # as saved before the hydride region existed (test data)
+    record["columns"] = [*record["columns"][:gone], *record["columns"][gone + 1:], "retired_column"]
+    record["results"] = [[*values[:gone], *values[gone + 1:], 1.0] for values in record["results"]]
+    store_as_saved(client, "CompactRecOld001", 2, result["scenario"], record)
+    body = client.get("/api/v1/shortlists/CompactRecOld001")
+    assert body.status_code == 200
+    assert problems(body.json(), declared(spec, "/api/v1/shortlists/{shortlist_id}"), spec) == []
+    assert all(row["fractions"]["hydride"] == 0.0 for row in body.json()["results"])
+    assert client.get("/s/CompactRecOld001.csv").status_code == 200

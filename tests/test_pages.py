@@ -16,6 +16,7 @@ from electrosieve.app.payloads import CSV_COLUMNS
 from electrosieve.app.viewstate import ViewQuery
 from electrosieve.app.payloads import diagram_payload, sources_payload
 from electrosieve.app.storage import save_shortlist
+from electrosieve.app.shortlists import compact_record
 from electrosieve.engine.catalog import default_catalog
 from electrosieve.engine.constants import nernst_slope
 from electrosieve.engine.diagram import diagram
@@ -311,7 +312,7 @@ def test_shortlist_notice_when_todays_catalog_ranks_differently(client):
                                                  "materials": ["Pt", "Zn", "Cu"]}).json()
     swapped = {**result, "catalog_version": "older", "results": list(reversed(result["results"]))}
     stored = save_shortlist(engine=storage, title="computed with older data", scenario=result["scenario"],
-                            result=swapped, notes={})
+                            result=compact_record(swapped), notes={})
     page = client.get(f"/s/{stored.id}.json").json()
     assert page["today"]["same_order"] is False and page["today"]["same_version"] is False
     assert "would rank differently" in page["today"]["message"]

@@ -214,3 +214,73 @@ def test_postgres_two_instances_share_the_shortlists(pg_url, tmp_path, start_ser
         status, health = http("GET", f"{server.url}/healthz")
         assert status == 200 and health["storage"] == "ok"
     assert not any(path.name.endswith(".sqlite3") for path in tmp_path.rglob("*"))
+
+
+# --- instances starting together on a new database --------------------------------------------
+
+START_TOGETHER = """
+import sys, time
+from electrosieve.app.storage import check_storage, open_storage
+url, at = sys.argv[1], float(sys.argv[2])
+time.sleep(max(0.0, at - time.time()))
+engine = open_storage(url=url)
+print(check_storage(engine=engine))
+"""
+RACE_TRIALS = 6
+INSTANCES = 3
+
+
+def test_postgres_instances_starting_together_on_a_new_database_all_come_up(pg_url):
+    # as an orchestrator starts them: several processes create the schema at the same moment, on a fresh
+    # schema per trial; every one must come up (before the advisory lock, one exited on a duplicate type name)
+    import subprocess
+    import sys
+    import time
+
+    from sqlalchemy import create_engine, text
+
+    admin = create_engine(pg_url)
+    try:
+        for trial in range(RACE_TRIALS):
+            schema = f"race_{secrets.token_hex(4)}"
+            with admin.begin() as connection:
+                connection.execute(text(f'CREATE SCHEMA "{schema}"'))
+            url = _with_options(os.environ[ENV].strip(), search_path=schema, statement_timeout=STATEMENT_MS)
+            at = time.time() + 2.0
+            processes = [subprocess.Popen([sys.executable, "-c", START_TOGETHER, url, str(at)], stdout=subprocess.PIPE,
+                                          stderr=subprocess.PIPE, text=True) for _ in range(INSTANCES)]
+            outcomes = [process.communicate(timeout=60) for process in processes]
+            for process, (out, err) in zip(processes, outcomes):
+                assert process.returncode == 0 and out.strip() == "ok", f"trial {trial}: {err[-2000:]}"
+            engine = open_storage(url=url)
+            saved = save_shortlist(engine=engine, title="after the race", scenario=SCENARIO, result=RESULT, notes={})
+            assert load_shortlist(engine=engine, shortlist_id=saved.id) == saved
+            assert_updates_are_refused(engine)  # the trigger was created exactly once, and works
+            engine.dispose()
+            with admin.begin() as connection:
+                connection.execute(text(f'DROP SCHEMA "{schema}" CASCADE'))
+    finally:
+        admin.dispose()
+
+
+def test_postgres_connections_cut_by_a_restart_are_replaced_without_an_error(pg_url, tmp_path):
+    # a database restart ends every open connection: the next requests check theirs and reconnect
+    from sqlalchemy import create_engine, text
+    from sqlalchemy.engine import make_url
+
+    app_url = make_url(pg_url).update_query_dict({"application_name": "electrosieve_restart"})
+    app_url = app_url.render_as_string(hide_password=False)
+    with TestClient(create_app(Settings(data_dir=tmp_path, database_url=app_url), catalog=CATALOG)) as client:
+        created = client.post("/api/v1/shortlists", json={"title": "before the restart", "scenario": SCENARIO})
+        assert created.status_code == 201
+        admin = create_engine(pg_url)
+        with admin.begin() as connection:
+            ended = connection.execute(text(
+                "SELECT count(pg_terminate_backend(pid)) FROM pg_stat_activity "
+                "WHERE application_name = 'electrosieve_restart'")).scalar()
+        admin.dispose()
+        assert ended >= 1
+        assert client.get("/healthz").json()["storage"] == "ok"
+        assert client.get(f"/api/v1/shortlists/{created.json()['id']}").status_code == 200
+        assert client.post("/api/v1/shortlists", json={"title": "after", "scenario": SCENARIO}).status_code == 201
+

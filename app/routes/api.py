@@ -13,7 +13,7 @@ from ..models import (DiagramOut, MaterialOut, PLOT, POTENTIAL_LIMIT, PointOut, 
                       ShortlistCreate, ShortlistCreated, ShortlistPublic, SourcesOut)
 from ..errors import Unprocessable, engine_error
 from ..pages import screen_result
-from ..shortlists import create_shortlist, find_shortlist, shortlist_public
+from ..shortlists import SAVE_REFUSALS, create_shortlist, find_shortlist, shortlist_public
 from .common import BODY_RESPONSES, ERROR_RESPONSES, get_catalog, get_storage
 
 router = APIRouter(prefix=urls.API, tags=["api"])
@@ -84,7 +84,7 @@ def screen_json(scenario: ScenarioIn, catalog: Catalog = Depends(get_catalog)):
     return screen_result(scenario, catalog)
 
 
-@router.post("/shortlists", response_model=ShortlistCreated, status_code=201, responses=BODY_RESPONSES,
+@router.post("/shortlists", response_model=ShortlistCreated, status_code=201, responses={**BODY_RESPONSES, **SAVE_REFUSALS},
              summary="Save a ranked shortlist; returns its id and link")
 def shortlists_create(body: ShortlistCreate, response: Response, catalog: Catalog = Depends(get_catalog),
                       storage=Depends(get_storage)) -> ShortlistCreated:

@@ -4,7 +4,6 @@ Routers parse (``app.viewstate``), call the page builders (``app.pages``, ``app.
 ``app.shortlists``) and render; none of them computes any science itself, and none imports another.
 """
 
-import csv
 import io
 import threading
 from pathlib import Path
@@ -18,6 +17,7 @@ from electrosieve.engine.catalog import Catalog, default_catalog, load_catalog
 
 from .. import urls
 from ..cautions import CAUTIONS
+from ..csvcells import write_csv
 from ..models import ErrorBody
 from ..payloads import CSV_COLUMNS, csv_rows
 from ..settings import Settings
@@ -71,7 +71,8 @@ class AppState:
         if self._storage is None:
             with self._lock:
                 if self._storage is None:
-                    self._storage = open_storage(url=self.settings.storage_url)
+                    self._storage = open_storage(url=self.settings.storage_url,
+                                                 synchronous=self.settings.sqlite_synchronous)
         return self._storage
 
     def close(self) -> None:
@@ -126,12 +127,10 @@ def csv_response(result: dict, filename: str, notes: dict | None = None) -> Resp
     """The ranked rows as CSV (``app.payloads.csv_rows``), with a ``note`` column when notes are given."""
     stream = io.StringIO()
     columns = list(CSV_COLUMNS) + (["note"] if notes is not None else [])
-    writer = csv.DictWriter(stream, fieldnames=columns, lineterminator="\n")
-    writer.writeheader()
-    for row in csv_rows(result):
-        if notes is not None:
-            row["note"] = notes.get(row["material"], "")
-        writer.writerow(row)
+    rows = csv_rows(result)
+    for row in rows if notes is not None else ():
+        row["note"] = notes.get(row["material"], "")
+    write_csv(stream, columns, rows)
     return Response(stream.getvalue(), media_type="text/csv; charset=utf-8",
                     headers={"Content-Disposition": f'attachment; filename="{filename}"'})
 

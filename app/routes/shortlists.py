@@ -1,6 +1,7 @@
 """Saved shortlists: the read-only page /s/{id}, its JSON twin and CSV, and the screen page's save form."""
 
 from fastapi import APIRouter, Depends, Request
+from fastapi.concurrency import run_in_threadpool
 from fastapi.responses import HTMLResponse, RedirectResponse, Response
 from pydantic import ValidationError
 
@@ -9,7 +10,7 @@ from electrosieve.engine.catalog import Catalog
 from .. import urls
 from ..errors import Unprocessable
 from ..models import ShortlistCreate, ShortlistPublic
-from ..shortlists import create_shortlist, find_shortlist, shortlist_public
+from ..shortlists import SAVE_REFUSALS, create_shortlist, find_shortlist, saved_result, shortlist_public
 from ..viewstate import ViewQuery, field_errors
 from .common import (BODY_RESPONSES, CSV_RESPONSES, ERROR_RESPONSES, HTML_RESPONSES, csv_response, get_catalog,
                      get_storage, render)
@@ -28,9 +29,9 @@ def shortlist_json(shortlist_id: str, catalog: Catalog = Depends(get_catalog), s
 
 @router.get("/s/{shortlist_id}.csv", response_class=Response, response_model=None, responses=CSV_RESPONSES,
             summary="A shortlist's ranked candidates as CSV, with the notes")
-def shortlist_csv(shortlist_id: str, storage=Depends(get_storage)) -> Response:
+def shortlist_csv(shortlist_id: str, catalog: Catalog = Depends(get_catalog), storage=Depends(get_storage)) -> Response:
     stored = find_shortlist(shortlist_id, storage)
-    return csv_response(stored.result, f"electrosieve-shortlist-{stored.id}.csv", notes=stored.notes)
+    return csv_response(saved_result(stored, catalog), f"electrosieve-shortlist-{stored.id}.csv", notes=stored.notes)
 
 
 @router.get("/s/{shortlist_id}", response_class=HTMLResponse, response_model=None, responses=HTML_RESPONSES,
@@ -43,7 +44,7 @@ def shortlist_html(request: Request, shortlist_id: str, catalog: Catalog = Depen
 
 @router.post("/shortlists", response_class=RedirectResponse, response_model=None, status_code=303,
              responses={303: {"description": "saved: go to the new shortlist's page"}, **HTML_RESPONSES,
-                        400: BODY_RESPONSES[400], 413: ERROR_RESPONSES[413]},
+                        400: BODY_RESPONSES[400], 413: ERROR_RESPONSES[413], **SAVE_REFUSALS},
              summary="Save a shortlist from the screen page's form (without JavaScript)")
 async def shortlist_form(request: Request, catalog: Catalog = Depends(get_catalog), storage=Depends(get_storage)):
     form = await request.form()
@@ -56,7 +57,7 @@ async def shortlist_form(request: Request, catalog: Catalog = Depends(get_catalo
         try:
             body = ShortlistCreate.model_validate({"title": str(form.get("title", "")), "scenario": scenario.model_dump(),
                                                    "notes": notes}, strict=False)
-            stored = create_shortlist(body, catalog, storage)
+            stored = await run_in_threadpool(create_shortlist, body, catalog, storage)  # off the event loop
         except ValidationError as error:
             errors = field_errors(error, "form")
         except Unprocessable as problem:
