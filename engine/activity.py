@@ -132,6 +132,7 @@ class PitzerData:
     dielectric_range_c: tuple[float, float]
     hso4: dict
     sources: tuple[str, ...]
+    fallback_source: str
 
 
 @dataclass(frozen=True)
@@ -190,6 +191,7 @@ def load_pitzer(path) -> PitzerData:
         dielectric_range = (float(dielectric["t_min"]), float(dielectric["t_max"]))
         hso4 = {key: hso4[key] for key in ("log_k", "dh", "dcp", "uncertainty", "source")}
         sources = [model["source"], dielectric["source"], hso4["source"], document["hso4"].get("thermal_source")]
+        fallback_source = str(model["fallback_source"])
     except (KeyError, TypeError, ValueError) as error:
         raise CatalogError(f"{path}: [model], [dielectric] and [hso4] need their fields ({error})") from None
     pairs = {}
@@ -207,7 +209,7 @@ def load_pitzer(path) -> PitzerData:
         sources += [row.source, row.derivative_source]
     return PitzerData(pairs=pairs, b=b, t_range_c=t_range, t_note=str(model.get("t_note", "")),
                       dielectric=coefficients, dielectric_range_c=dielectric_range, hso4=hso4,
-                      sources=tuple(dict.fromkeys(s for s in sources if s)))
+                      sources=tuple(dict.fromkeys(s for s in sources if s)), fallback_source=fallback_source)
 
 
 def relative_permittivity(temperature_k: float, data: PitzerData | None = None) -> float:

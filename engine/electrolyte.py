@@ -29,7 +29,7 @@ from functools import lru_cache
 
 from pydantic import BaseModel, ConfigDict, Field
 
-from .activity import Activities, PitzerData, ion_charge, pitzer_data, solution_activities
+from .activity import DAVIES_LIMIT, PITZER, Activities, PitzerData, ion_charge, pitzer_data, solution_activities
 from .constants import GAS_CONSTANT, T_STANDARD, ZERO_CELSIUS
 from .datafiles import Number, read_toml, validate_rows
 from .errors import CatalogError, InputError
@@ -400,10 +400,8 @@ def electrolyte(recipe: str, temperature_c: float = 25.0, field: str = "electrol
 
 def _validity(result: Activities, data: PitzerData, temperature_c: float) -> tuple[str, list[str]]:
     """The range of the model used, in words, and the source keys of the parameters that entered."""
-    from .activity import DAVIES_LIMIT, PITZER
-
     if result.model != PITZER:
-        return f"ionic strength up to about {DAVIES_LIMIT:g} mol/kg", ["davies1962", "malmberg_maryott1956"]
+        return f"ionic strength up to about {DAVIES_LIMIT:g} mol/kg", [data.fallback_source, data.sources[1]]
     used = [p for (c, a), p in data.pairs.items() if result.molalities.get(c, 0.0) > 0.0
             and result.molalities.get(a, 0.0) > 0.0]
     fitted = min((p.max_molality, f"{p.cation}–{p.anion}") for p in used) if used else None

@@ -95,7 +95,8 @@ def _keys_cited_by_code() -> set[str]:
     import re
 
     keys = set()
-    paths = [*builtin_data_dir().glob("*.toml"), *builtin_data_dir().glob("species/*.toml")]
+    paths = [*builtin_data_dir().glob("*.toml"), *builtin_data_dir().glob("species/*.toml"),
+             *builtin_data_dir().glob("ligands/*.toml")]
     for path in paths:
         if path.name == "sources.toml":
             continue
