@@ -306,6 +306,43 @@ def cmd_sources(args) -> None:
     _emit(args, payload, human)
 
 
+def cmd_electrolyte(args) -> None:
+    from electrosieve.engine.electrolyte import electrolyte
+
+    from .cautions import ELECTROLYTE_CAUTIONS
+
+    result = electrolyte(args.recipe, check_temperature(_number(args.temperature, "--temperature")), "RECIPE")
+    payload = {
+        "recipe": result.recipe, "temperature_c": result.temperature_c, "ph": round(result.ph, 3),
+        "ionic_strength": round(result.ionic_strength, 5),
+        "activities": {ion: float(f"{a:.4g}") for ion, a in result.activities.items()},
+        "molalities": {ion: float(f"{m:.4g}") for ion, m in result.molalities.items()},
+        "water_activity": round(result.water_activity, 4), "model": result.model, "validity": result.validity,
+        "warnings": list(result.warnings), "sources": list(result.sources), "cautions": list(ELECTROLYTE_CAUTIONS),
+    }
+
+    def human(p):
+        console = _console()
+        console.print(f"{p['recipe']} at {p['temperature_c']:g} °C: pH {p['ph']:.2f}, "
+                      f"ionic strength {p['ionic_strength']:.3g} mol/kg, water activity {p['water_activity']:.3f}")
+        from rich.table import Table
+
+        table = Table(title="free ions")
+        for column in ("ion", "mol/kg", "activity"):
+            table.add_column(column)
+        for ion, activity in p["activities"].items():
+            table.add_row(ion, f"{p['molalities'][ion]:.3g}", f"{activity:.3g}")
+        console.print(table)
+        console.print(f"Model: {p['model']}; valid for {p['validity']}.")
+        for warning in p["warnings"]:
+            console.print(f"[bold]warning[/bold]: {warning}")
+        console.print("Cautions:")
+        for caution in p["cautions"]:
+            console.print(f" - {caution}")
+
+    _emit(args, payload, human)
+
+
 def cmd_serve(args) -> None:
     from .server import serve
 
@@ -378,6 +415,13 @@ def build_parser() -> argparse.ArgumentParser:
     sub.add_argument("element")
     common(sub, window=False)
     sub.set_defaults(handler=cmd_sources)
+
+    sub = commands.add_parser("electrolyte", help="pH, ionic strength and ion activities of an electrolyte recipe")
+    sub.add_argument("recipe", metavar="RECIPE", help="e.g. '1 M KOH', '30 wt%% KOH', '0.5 M H2SO4 + 0.1 M CuSO4', "
+                     "'seawater' (grammar: DEVELOPERS.md)")
+    sub.add_argument("--temperature", default="25", help="temperature in °C (default 25)")
+    sub.add_argument("--json", action="store_true", help="print JSON instead of a table")
+    sub.set_defaults(handler=cmd_electrolyte)
 
     sub = commands.add_parser("serve", help="run the web app")
     sub.add_argument("--host", default="127.0.0.1")

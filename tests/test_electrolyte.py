@@ -136,3 +136,28 @@ def test_every_solute_and_medium_is_listed():
     assert known_media() == ["seawater", "saline"]
     for formula in known_solutes():   # every solute evaluates with the Pitzer model at 0.1 mol/kg
         assert electrolyte(f"0.1 mol/kg {formula}").model == PITZER, formula
+
+
+def test_cli_electrolyte_json_contract(capsys):
+    import json
+
+    from electrosieve.app.cli import main
+
+    assert main(["electrolyte", "0.5 M H2SO4 + 0.1 M CuSO4", "--temperature", "40", "--json"]) == 0
+    payload = json.loads(capsys.readouterr().out)
+    assert {"ph", "ionic_strength", "activities", "model", "warnings"} <= set(payload)
+    assert "Cu^2+" in payload["activities"] and payload["temperature_c"] == 40.0
+    assert payload["cautions"]
+
+
+def test_cli_electrolyte_human_output_and_errors(capsys):
+    from electrosieve.app.cli import main
+
+    assert main(["electrolyte", "seawater"]) == 0
+    out = capsys.readouterr().out
+    assert "pH 8.10" in out and "Cl^-" in out and "Cautions" in out
+    assert main(["electrolyte", "1 M NaOCl"]) == 2
+    err = capsys.readouterr().err
+    assert err.startswith("error: RECIPE: unknown solute 'NaOCl'") and "Traceback" not in err
+    assert main(["electrolyte", "1 M KOH", "--temperature", "hot"]) == 2
+    assert "--temperature must be a number" in capsys.readouterr().err
