@@ -15,6 +15,7 @@ from .catalog import Catalog, ElementSystem, default_catalog
 from .constants import ZERO_CELSIUS
 from .domains import Boundary, Domain, Window, boundaries, stability_domains, stable_index_at
 from .errors import InputError
+from .formula import FormulaError, parse_formula
 from .geometry import stack
 from .planes import Planes, build_planes
 from .species import Species
@@ -118,7 +119,8 @@ def check_ion_activities(ion_activities, system: ElementSystem, catalog: Catalog
     """The (name, activity) pairs of ``ion_activities`` that concern ``system``, checked and sorted.
 
     Names of dissolved species of other elements are accepted and left out (a screen passes one set
-    to every element); a name no dissolved species of the catalog bears is an error.
+    to every element), as are ions of elements without a species file (K^+, Na^+ of a recipe); any
+    other name no dissolved species of the catalog bears is an error.
     """
     if not ion_activities:
         return ()
@@ -133,7 +135,7 @@ def check_ion_activities(ion_activities, system: ElementSystem, catalog: Catalog
             if s.is_dissolved}
     chosen = []
     for name, value in ion_activities.items():
-        if name not in known:
+        if name not in known and not _foreign_ion(name, catalog):
             raise InputError(f"ion_activities: no dissolved species is called {name!r}; write names as "
                              "`electrosieve sources ELEMENT` shows them, e.g. Cu^2+, HZnO2^-, AuCl4^-",
                              field="ion_activities")
@@ -141,6 +143,19 @@ def check_ion_activities(ion_activities, system: ElementSystem, catalog: Catalog
         if name in own:
             chosen.append((name, value))
     return tuple(sorted(chosen))
+
+
+def _foreign_ion(name, catalog: Catalog) -> bool:
+    """True for an ion such as K^+ whose elements (besides H and O) have no species file in ``catalog``."""
+    try:
+        elements = set(parse_formula(str(name).partition("^")[0])) - {"H", "O"}
+    except FormulaError:
+        return False
+    return bool(elements) and "^" in str(name) and not elements & (set(catalog.systems) | _ligand_elements(catalog))
+
+
+def _ligand_elements(catalog: Catalog) -> set[str]:
+    return {found.ligand.counting_element for found in catalog.ligands.values()}
 
 
 def check_ligand_activities(ligand_activities, catalog: Catalog) -> tuple[tuple[str, float], ...]:

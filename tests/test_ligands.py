@@ -116,6 +116,14 @@ def test_per_ion_activity_moves_only_its_own_boundaries_by_the_nernst_term():
     assert line(copper, "Cu^+", "Cu^2+").intercept == pytest.approx(0.159 + 0.05916 * (-1 - -6), abs=0.01)  # Bard 1985: 0.159
 
 
+def test_a_recipes_ions_pass_straight_to_the_diagram():
+    from electrosieve.engine.electrolyte import electrolyte
+
+    bath = electrolyte("1 M KOH + 0.01 M CuSO4")   # K^+ has no species file: accepted and left out
+    result = diagram("Cu", ion_activities=bath.ion_activities, ligand_activities=bath.ligand_activities)
+    assert result.ion_activities == (("Cu^2+", bath.activities["Cu^2+"]),)
+
+
 def test_defaults_leave_diagrams_unchanged_and_results_are_cached_per_conditions():
     assert diagram("Ag").domains == diagram("Ag", ion_activities={}, ligand_activities={}).domains
     assert diagram("Ag", ligand_activities={"Cl^-": 0.01}) is diagram("Ag", ligand_activities={"Cl^-": 0.01})
@@ -129,6 +137,8 @@ def test_defaults_leave_diagrams_unchanged_and_results_are_cached_per_conditions
     ({"ligand_activities": {"CN^-": 0.1}}, "ligand_activities", "known ligands: Cl^-, SO4^2-"),
     ({"ligand_activities": {"Cl^-": 0.0}}, "ligand_activities[Cl^-]", "between"),
     ({"ion_activities": [("Cu^2+", 0.1)]}, "ion_activities", "must map"),
+    ({"ion_activities": {"Zn^+2": 0.1}}, "ion_activities", "no dissolved species is called 'Zn^+2'"),
+    ({"ion_activities": {"CuCl3^2-": 0.1}}, "ion_activities", "no dissolved species is called 'CuCl3^2-'"),
 ])
 def test_bad_activities_are_named(conditions, field, words):
     with pytest.raises(InputError) as error:
