@@ -120,7 +120,8 @@ class Electrolyte:
 
     ``ph`` = −log10 a(H+); ``ionic_strength`` [mol/kg]; ``activities`` and ``molalities`` of the free
     ions [mol/kg basis], H+ and OH− first; ``model`` names the activity model and ``validity`` its range;
-    ``warnings`` are for the user; ``sources`` are keys of ``data/sources.toml``.
+    ``warnings`` are for the user; ``sources`` are keys of ``data/sources.toml``. ``ion_activities`` and
+    ``ligand_activities(catalog.ligands)`` are what ``engine.diagram.diagram`` takes.
     """
 
     recipe: str
@@ -141,10 +142,9 @@ class Electrolyte:
         return {ion: a for ion, a in self.activities.items()
                 if ion_charge(ion) > 0 and ion not in ("H^+",) and a > 0.0}
 
-    @property
-    def ligand_activities(self) -> dict[str, float]:
-        """Activities of the anions that can bind metals (keys of the ligand files: ``Cl^-``, ``SO4^2-``)."""
-        return {ion: self.activities[ion] for ion in ("Cl^-", "SO4^2-") if self.activities.get(ion, 0.0) > 0.0}
+    def ligand_activities(self, ligands) -> dict[str, float]:
+        """Activities of the free ligands among ``ligands`` (names such as ``catalog.ligands`` holds: ``Cl^-``)."""
+        return {ion: self.activities[ion] for ion in ligands if self.activities.get(ion, 0.0) > 0.0}
 
 
 @dataclass(frozen=True, eq=False)
@@ -348,8 +348,9 @@ def _speciate(ions: dict[str, float], fixed_ph: float | None, own_pairs: list[tu
         change = max(abs(math.log(result.gammas[ion] / g(ion))) for ion in result.gammas)
         gammas, water_activity = dict(result.gammas), result.water_activity
         if change < 1e-10:
-            break
-    return result
+            return result
+    return Activities(**{**result.__dict__, "notes": (*result.notes, "activity coefficients did not converge to "
+                                                      "1e-10 in 200 iterations: the last values are shown")})
 
 
 def electrolyte(recipe: str, temperature_c: float = 25.0, field: str = "electrolyte") -> Electrolyte:

@@ -72,7 +72,7 @@ def test_sulfuric_acid_second_dissociation():
     strong = electrolyte("0.5 M H2SO4 + 0.1 M CuSO4")
     assert strong.molalities["HSO4^-"] > 2 * strong.molalities["SO4^2-"]
     assert 0.0 < strong.ion_activities["Cu^2+"] < 0.1
-    assert strong.ligand_activities["SO4^2-"] == strong.activities["SO4^2-"]
+    assert strong.ligand_activities(["Cl^-", "SO4^2-"]) == {"SO4^2-": strong.activities["SO4^2-"]}
     dilute = electrolyte("1 mmol/kg H2SO4")
     assert dilute.molalities["SO4^2-"] > 5 * dilute.molalities["HSO4^-"]
     assert -math.log10(0.002) < dilute.ph < -math.log10(0.001)   # between one and two protons per H2SO4

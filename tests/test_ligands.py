@@ -120,7 +120,7 @@ def test_a_recipes_ions_pass_straight_to_the_diagram():
     from electrosieve.engine.electrolyte import electrolyte
 
     bath = electrolyte("1 M KOH + 0.01 M CuSO4")   # K^+ has no species file: accepted and left out
-    result = diagram("Cu", ion_activities=bath.ion_activities, ligand_activities=bath.ligand_activities)
+    result = diagram("Cu", ion_activities=bath.ion_activities, ligand_activities=bath.ligand_activities(default_catalog().ligands))
     assert result.ion_activities == (("Cu^2+", bath.activities["Cu^2+"]),)
 
 
