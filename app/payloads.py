@@ -177,8 +177,7 @@ def scenario_payload(scenario: Scenario) -> dict:
         "accept": list(scenario.accept), "materials": None if scenario.materials is None else list(scenario.materials),
         "family": scenario.family, "rank_by": list(scenario.rank_by), "weights": dict(scenario.weights),
         "electrolyte": None if scenario.solution.electrolyte is None else scenario.solution.electrolyte.recipe,
-        "ion_activities": {name: _significant(a) for name, a in scenario.solution.ion_activities} or None,
-        "chloride": None if scenario.solution.chloride is None else _significant(scenario.solution.chloride),
+        "ion_activities": dict(scenario.solution.ion_activities) or None, "chloride": scenario.solution.chloride,
     }
 
 
