@@ -201,6 +201,17 @@ def test_api_takes_a_recipe_ion_activities_and_chloride(client):
     assert bad.status_code == 422 and "NaFoo" in json.dumps(bad.json())
 
 
+def test_api_electrolyte_is_the_cli_json(client, capsys):
+    # 0.1 mol/kg HCl: γ± 0.796 (Robinson & Stokes 1959, Appendix 8.10), pH about 1.1
+    answer = client.get("/api/v1/electrolyte", params={"recipe": "0.1 mol/kg HCl"})
+    assert answer.status_code == 200
+    assert main(["electrolyte", "0.1 mol/kg HCl", "--json"]) == 0
+    assert answer.json() == json.loads(capsys.readouterr().out)
+    assert answer.json()["ph"] == pytest.approx(1.1, abs=0.02)
+    bad = client.get("/api/v1/electrolyte", params={"recipe": "3 M NaFoo"})
+    assert bad.status_code == 422 and "recipe" in json.dumps(bad.json())
+
+
 def test_screen_page_shows_the_recipe_ph_and_ionic_strength(client):
     fragment = client.get("/screen/ranking", params={"electrolyte": "seawater", "potential_low": "0",
                                                      "potential_high": "0.8", "pick": "names", "materials": "Al"})

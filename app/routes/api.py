@@ -5,12 +5,13 @@ from fastapi.responses import Response
 
 from electrosieve.engine.catalog import Catalog
 from electrosieve.engine.diagram import diagram, stable_at
+from electrosieve.engine.electrolyte import electrolyte as make_electrolyte
 from electrosieve.engine.inputs import ACTIVITY_RANGE, DEFAULT_ACTIVITY, LIGAND_ACTIVITY_RANGE, TEMPERATURE_RANGE_C
 from electrosieve.engine.errors import ElectrosieveError
 from electrosieve.engine.solution import Solution, make_solution
 
 from .. import payloads, urls
-from ..models import (DiagramOut, MaterialOut, PLOT, POTENTIAL_LIMIT, PointOut, ScaleOut, ScenarioIn, ScreenResult,
+from ..models import (DiagramOut, ElectrolyteOut, MaterialOut, PLOT, POTENTIAL_LIMIT, PointOut, ScaleOut, ScenarioIn, ScreenResult,
                       ShortlistCreate, ShortlistCreated, ShortlistPublic, SourcesOut)
 from ..errors import Unprocessable, engine_error
 from ..pages import screen_result
@@ -98,6 +99,16 @@ def point_json(element: str = ElementPath,
     except ElectrosieveError as error:
         raise Unprocessable([engine_error(error, "query")]) from None
     return payloads.point_payload(point, solution)
+
+
+@router.get("/electrolyte", response_model=ElectrolyteOut, responses=ERROR_RESPONSES,
+            summary="pH, ionic strength and free-ion activities of a recipe (as `electrosieve electrolyte --json`)")
+def electrolyte_json(recipe: str = Query(..., min_length=1, max_length=200, description="e.g. `0.6 M NaCl`, `seawater`"),
+                     temperature: float = Temperature):
+    try:
+        return payloads.electrolyte_payload(make_electrolyte(recipe, temperature, "recipe"))
+    except ElectrosieveError as error:
+        raise Unprocessable([engine_error(error, "query")]) from None
 
 
 @router.post("/screen", response_model=ScreenResult, responses=BODY_RESPONSES,
