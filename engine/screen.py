@@ -267,7 +267,8 @@ class ScreenResult:
 
 
 class VerdictStore:
-    """Element verdicts per question — (catalog, activity, temperature, window, accepted regions) — for
+    """Element verdicts per question — (catalog, activity, temperature, window, accepted regions, ion and
+    ligand activities) — for
     the ``size`` questions asked most recently; safe to share between threads.
 
     The same question comes back often (the page, its CSV, the saved shortlist, every opening of a
