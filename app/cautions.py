@@ -22,3 +22,11 @@ CAUTIONS = (
     "chloride. Confirm every choice by experiment.",
     "Your rules first: local codes and your institution's safety rules take precedence over these notes.",
 )
+
+ELECTROLYTE_CAUTIONS = (
+    "Strong acids and caustic burn skin and eyes, hot caustic (KOH, NaOH) worst of all: wear eye protection and "
+    "gloves, add acid or caustic to water slowly, never water to concentrated acid.",
+    "Chloride electrolytes evolve chlorine, a toxic gas, at anodes above about 1.36 V vs SHE; hydrochloric acid fumes.",
+    "Dissolved metals such as copper, nickel, lead and mercury salts are toxic: handle and dispose of the "
+    "electrolyte as hazardous waste under your institution's rules and local codes.",
+)

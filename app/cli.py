@@ -12,6 +12,7 @@ from pathlib import Path
 
 from electrosieve.engine.catalog import Catalog, default_catalog, load_catalog
 from electrosieve.engine.diagram import PlotLimits, diagram, stable_at
+from electrosieve.engine.electrolyte import electrolyte
 from electrosieve.engine.inputs import DEFAULT_ACTIVITY, check_temperature
 from electrosieve.engine.errors import ElectrosieveError, InputError
 from electrosieve.engine.scales import canonical_scale, convert, needs_ph
@@ -19,7 +20,7 @@ from electrosieve.engine.screen import screen
 
 from . import csvcells, payloads
 from .ranges import within
-from .viewstate import cli_scenario, deprecated, parse_number, parse_range
+from .viewstate import cli_scenario, cli_solution, deprecated, parse_number, parse_range
 
 EXIT_BAD_INPUT = 2
 EXIT_INTERNAL = 1
@@ -80,12 +81,36 @@ def _console():
     return Console()
 
 
+def _solution(args, temperature: float, ph=None):
+    return cli_solution(electrolyte=args.electrolyte, ion_activity=args.ion_activity, chloride=args.chloride,
+                        temperature=temperature, ph=ph, catalog=_catalog(args))
+
+
+def _print_solution(payload: dict, console=None) -> None:
+    """The recipe's pH and ionic strength, the per-ion activities, chloride and the warnings, if any."""
+    console = console or _console()
+    recipe = payload.get("electrolyte")
+    if recipe:
+        console.print(f"Electrolyte {recipe['recipe']}: pH {recipe['ph']:.2f} at {recipe['temperature_c']:g} °C, "
+                      f"ionic strength {recipe['ionic_strength']:.3g} mol/kg ({recipe['model']}).")
+    if payload.get("ion_activities"):
+        console.print("Ion activities: " + ", ".join(f"{k} {v:g}" for k, v in payload["ion_activities"].items()))
+    if payload.get("chloride") is not None:
+        console.print(f"Free chloride activity {payload['chloride']:g}.")
+    for warning in payload.get("warnings", []):
+        console.print(f"[bold]warning[/bold]: {warning}")
+    if recipe:
+        for caution in recipe["cautions"]:
+            console.print(f" - {caution}")
+
+
 def cmd_diagram(args) -> None:
     catalog = _catalog(args)
     temperature = check_temperature(parse_number(args.temperature, "--temperature"))
+    solution = _solution(args, temperature)
     result = diagram(args.element, parse_number(args.activity, "--activity"), temperature,
-                     _limits(args), catalog=catalog)
-    payload = payloads.diagram_payload(result, catalog)
+                     _limits(args), catalog=catalog, **solution.diagram_arguments())
+    payload = payloads.diagram_payload(result, catalog, solution)
     if args.out:
         from .figures import diagram_figure, write_figure
 
@@ -120,6 +145,7 @@ def _print_diagram(payload: dict) -> None:
     console.print(f"{payload['conditions']} Neutral pH {payload['water']['neutral_ph']:.2f}.")
     for note in payload["temperature_notes"]:
         console.print(f" - {note}")
+    _print_solution(payload, console)
 
 
 def cmd_point(args) -> None:
@@ -127,11 +153,17 @@ def cmd_point(args) -> None:
     temperature = check_temperature(parse_number(args.temperature, "--temperature"))
     ph = within(parse_number(args.ph, "--ph"), "--ph", "ph")
     potential = within(parse_number(args.potential, "--potential"), "--potential", "potential")
-    result = diagram(args.element, parse_number(args.activity, "--activity"), temperature, _limits(args), catalog=catalog)
-    payload = payloads.point_payload(stable_at(result, catalog.scales, ph, potential, args.scale))
-    _emit(args, payload, lambda p: print(
-        f"{p['element']} at pH {p['ph']:g}, {p['potential']:g} V vs {p['scale']} ({p['potential_she']:.3f} V vs SHE): "
-        f"{p['formula']} ({p['phase']}) - {p['region']}"))
+    solution = _solution(args, temperature, ph)
+    result = diagram(args.element, parse_number(args.activity, "--activity"), temperature, _limits(args), catalog=catalog,
+                     **solution.diagram_arguments())
+    payload = payloads.point_payload(stable_at(result, catalog.scales, ph, potential, args.scale), solution)
+
+    def human(p):
+        print(f"{p['element']} at pH {p['ph']:g}, {p['potential']:g} V vs {p['scale']} ({p['potential_she']:.3f} V vs SHE): "
+              f"{p['formula']} ({p['phase']}) - {p['region']}")
+        _print_solution(p)
+
+    _emit(args, payload, human)
 
 
 def cmd_convert(args) -> None:
@@ -178,7 +210,8 @@ def cmd_screen(args) -> None:
     scenario = cli_scenario(ph=args.ph, potential=args.potential, scale=args.scale, activity=args.activity,
                             temperature=args.temperature, role=args.role, accept=args.accept,
                             materials=args.materials, family=args.family, rank_by=args.rank_by,
-                            weights=args.weights, catalog=catalog)
+                            weights=args.weights, catalog=catalog, electrolyte=args.electrolyte,
+                            ion_activity=args.ion_activity, chloride=args.chloride)
     result = payloads.screen_payload(screen(scenario, catalog))
     if args.csv:
         write_csv(result, sys.stdout)
@@ -215,8 +248,17 @@ def _print_screen(result: dict) -> None:
     gas = {h["species"]: h["note"] for row in result["results"] for h in row["hazards"] if h["kind"] == "gas"}
     for note in gas.values():
         console.print(f"[bold]gas[/bold]: {note}")
+    cautions = {row["material"]: row["caution"] for row in result["results"] if row.get("caution")}
+    for material, caution in cautions.items():
+        console.print(f"[bold]caution[/bold] {material}: {caution}")
+    if result.get("electrolyte"):
+        e = result["electrolyte"]
+        console.print(f"Electrolyte {e['recipe']}: pH {e['ph']:.2f} at {e['temperature_c']:g} °C, "
+                      f"ionic strength {e['ionic_strength']:.3g} mol/kg ({e['model']}).")
+    for warning in result.get("warnings", []):
+        console.print(f"[bold]warning[/bold]: {warning}")
     console.print("Cautions:")
-    for caution in result["cautions"]:
+    for caution in result["cautions"] + (result["electrolyte"]["cautions"] if result.get("electrolyte") else []):
         console.print(f" - {caution}")
 
 
@@ -262,6 +304,32 @@ def cmd_sources(args) -> None:
     _emit(args, payload, human)
 
 
+def cmd_electrolyte(args) -> None:
+    payload = payloads.electrolyte_payload(
+        electrolyte(args.recipe, check_temperature(parse_number(args.temperature, "--temperature")), "RECIPE"))
+
+    def human(p):
+        console = _console()
+        console.print(f"{p['recipe']} at {p['temperature_c']:g} °C: pH {p['ph']:.2f}, "
+                      f"ionic strength {p['ionic_strength']:.3g} mol/kg, water activity {p['water_activity']:.3f}")
+        from rich.table import Table
+
+        table = Table(title="free ions")
+        for column in ("ion", "mol/kg", "activity"):
+            table.add_column(column)
+        for ion, activity in p["activities"].items():
+            table.add_row(ion, f"{p['molalities'][ion]:.3g}", f"{activity:.3g}")
+        console.print(table)
+        console.print(f"Model: {p['model']}; valid for {p['validity']}.")
+        for warning in p["warnings"]:
+            console.print(f"[bold]warning[/bold]: {warning}")
+        console.print("Cautions:")
+        for caution in p["cautions"]:
+            console.print(f" - {caution}")
+
+    _emit(args, payload, human)
+
+
 def cmd_serve(args) -> None:
     from .server import serve
 
@@ -285,6 +353,14 @@ def build_parser() -> argparse.ArgumentParser:
                              help="potential limits of the diagram, vs SHE [V] (default -3:3)")
             sub.add_argument("--window-ph", dest="ph_limits", action=_Renamed, new="--ph-limits")
             sub.add_argument("--window-potential", dest="potential_limits", action=_Renamed, new="--potential-limits")
+            solution_options(sub)
+
+    def solution_options(sub):
+        sub.add_argument("--electrolyte", metavar="RECIPE", help="electrolyte recipe, e.g. '0.6 M NaCl', 'seawater' "
+                         "(see `electrosieve electrolyte`): sets its ions' and chloride's activities")
+        sub.add_argument("--ion-activity", action="append", metavar="ION=A",
+                         help="activity of one dissolved species, e.g. 'Cu^2+=0.1' (repeatable)")
+        sub.add_argument("--chloride", metavar="A", help="free chloride activity (adds chloride complexes and salts)")
 
     sub = commands.add_parser("diagram", help="the exact E-pH diagram of one element")
     sub.add_argument("element")
@@ -314,7 +390,7 @@ def build_parser() -> argparse.ArgumentParser:
     sub.set_defaults(handler=cmd_scales)
 
     sub = commands.add_parser("screen", help="rank candidate materials over an operating window")
-    sub.add_argument("--ph", required=True, metavar="A[:B]", help="pH point or range")
+    sub.add_argument("--ph", metavar="A[:B]", help="pH point or range (default: the --electrolyte recipe's pH)")
     sub.add_argument("--potential", required=True, metavar="X[:Y]", help="potential point or range [V] on --scale")
     sub.add_argument("--scale", default="SHE", help="reference scale of --potential (default SHE)")
     sub.add_argument("--activity", default=str(DEFAULT_ACTIVITY), help="activity of dissolved species (default 1e-6)")
@@ -327,6 +403,7 @@ def build_parser() -> argparse.ArgumentParser:
     sub.add_argument("--rank-by", metavar="KEYS", help="ranking order, e.g. unacceptable,instability,dissolved,price")
     sub.add_argument("--weights", metavar="KEY:W,...", help="rank by a weighted score instead, e.g. unacceptable:1,price:0.2")
     sub.add_argument("--csv", action="store_true", help="print the ranked rows as CSV")
+    solution_options(sub)
     common(sub, diagram_options=False)
     sub.set_defaults(handler=cmd_screen)
 
@@ -338,6 +415,13 @@ def build_parser() -> argparse.ArgumentParser:
     sub.add_argument("element")
     common(sub, diagram_options=False)
     sub.set_defaults(handler=cmd_sources)
+
+    sub = commands.add_parser("electrolyte", help="pH, ionic strength and ion activities of an electrolyte recipe")
+    sub.add_argument("recipe", metavar="RECIPE", help="e.g. '1 M KOH', '30 wt%% KOH', '0.5 M H2SO4 + 0.1 M CuSO4', "
+                     "'seawater' (grammar: DEVELOPERS.md)")
+    sub.add_argument("--temperature", default="25", help="temperature in °C (default 25)")
+    sub.add_argument("--json", action="store_true", help="print JSON instead of a table")
+    sub.set_defaults(handler=cmd_electrolyte)
 
     sub = commands.add_parser("serve", help="run the web app")
     sub.add_argument("--host", default="127.0.0.1")

@@ -5,6 +5,7 @@ from electrosieve.engine.diagram import diagram
 from electrosieve.engine.errors import ElectrosieveError
 from electrosieve.engine.scales import canonical_scale
 from electrosieve.engine.screen import material_id
+from electrosieve.engine.solution import make_solution
 
 from . import urls
 from .cautions import CAUTIONS
@@ -55,10 +56,13 @@ def compare_page_data(view: ViewQuery, catalog: Catalog) -> ComparePage:
         rows = {row["material"]: row for row in result["results"]}
         scenario = result["scenario"]
         try:
+            solution = make_solution(catalog=catalog, temperature_c=scenario["temperature"],
+                                     electrolyte=scenario["electrolyte"], ion_activities=scenario["ion_activities"],
+                                     chloride=scenario["chloride"])
             for mid in ids:
                 material = catalog.materials[mid]
                 payload = diagram_payload(diagram(material.element, scenario["activity"], scenario["temperature"],
-                                                  catalog=catalog), catalog)
+                                                  catalog=catalog, **solution.diagram_arguments()), catalog, solution)
                 figure = figure_dict(payload, scales=catalog.scales, scale_id=axis,
                                      operating_window=result["window"]["vertices_she"],
                                      title=f"{material.name}: {material.element}, {scenario['temperature']:g} °C, "

@@ -16,7 +16,7 @@ from typing import Annotated, Literal
 from pydantic import AfterValidator, BaseModel, ConfigDict, Field, StringConstraints, WithJsonSchema
 from pydantic_core import PydanticCustomError
 
-from electrosieve.engine.inputs import ACTIVITY_RANGE, DEFAULT_ACTIVITY, TEMPERATURE_RANGE_C
+from electrosieve.engine.inputs import ACTIVITY_RANGE, DEFAULT_ACTIVITY, LIGAND_ACTIVITY_RANGE, TEMPERATURE_RANGE_C
 from electrosieve.engine.domains import PlotLimits
 from electrosieve.engine.materials import FAMILIES
 from electrosieve.engine.ranking import DEFAULT_ORDER, RANK_KEYS
@@ -48,6 +48,12 @@ Potential = Annotated[float, Field(ge=-POTENTIAL_LIMIT, le=POTENTIAL_LIMIT)]
 MaterialId = Annotated[str, StringConstraints(min_length=1, max_length=64, pattern=r"^[A-Za-z][A-Za-z0-9_-]*$")]
 ScaleId = Annotated[str, StringConstraints(min_length=1, max_length=32)]
 Weight = Annotated[float, Field(ge=0, le=WEIGHT_MAX)]
+Recipe = Annotated[str, StringConstraints(min_length=1, max_length=200)]
+IonName = Annotated[str, StringConstraints(min_length=1, max_length=32)]
+IonActivity = Annotated[float, Field(ge=ACTIVITY_RANGE[0], le=ACTIVITY_RANGE[1])]
+Chloride = Annotated[float, Field(ge=LIGAND_ACTIVITY_RANGE[0], le=LIGAND_ACTIVITY_RANGE[1])]
+IONS_MAX = 20
+"""Most ions one request may name."""
 
 
 class StrictIn(BaseModel):
@@ -68,8 +74,8 @@ class Out(BaseModel):
 class ScenarioIn(StrictIn):
     """A screening scenario, in the shape ``electrosieve screen --json`` echoes under ``scenario``."""
 
-    ph: Annotated[Ph | Annotated[list[Ph], Field(min_length=1, max_length=2)], POINT_OR_PAIR] = Field(
-        description="pH point or [low, high] range", examples=[[0, 1]])
+    ph: Annotated[Ph | Annotated[list[Ph], Field(min_length=1, max_length=2)] | None, POINT_OR_PAIR] = Field(
+        None, description="pH point or [low, high] range; omitted: the `electrolyte` recipe's pH", examples=[[0, 1]])
     potential: Annotated[Potential | Annotated[list[Potential], Field(min_length=1, max_length=2)], POINT_OR_PAIR] = Field(
         description="potential point or [low, high] range [V on `scale`]", examples=[[-0.2, 0.0]])
     scale: ScaleId = Field("SHE", description="reference scale of `potential` (see /api/v1/scales)")
@@ -85,13 +91,20 @@ class ScenarioIn(StrictIn):
     family: Family | None = None
     rank_by: Annotated[list[RankKey], Field(min_length=1, max_length=len(RANK_KEYS))] | None = None
     weights: Annotated[dict[RankKey, Weight], Field(max_length=len(RANK_KEYS))] | None = None
+    electrolyte: Recipe | None = Field(None, description="electrolyte recipe, e.g. '0.6 M NaCl', '30 wt% KOH', "
+                                       "'seawater' (grammar: `electrosieve electrolyte`)", examples=["seawater"])
+    ion_activities: Annotated[dict[IonName, IonActivity], Field(max_length=IONS_MAX)] | None = Field(
+        None, description="activity of named dissolved species, overriding `activity` and the recipe for those "
+        "only", examples=[{"Cu^2+": 0.1}])
+    chloride: Chloride | None = Field(None, description="free chloride activity (overrides the recipe's)")
 
     def engine_arguments(self) -> dict:
         """Keyword arguments of ``engine.screen.make_scenario``."""
         return {"ph": self.ph, "potential": self.potential, "scale": self.scale, "activity": self.activity,
                 "temperature": self.temperature, "role": self.role, "accept": self.accept,
                 "materials": self.materials, "family": self.family, "rank_by": self.rank_by,
-                "weights": self.weights or None}
+                "weights": self.weights or None, "electrolyte": self.electrolyte,
+                "ion_activities": self.ion_activities, "chloride": self.chloride}
 
 
 class ScenarioEcho(Out):
@@ -108,6 +121,9 @@ class ScenarioEcho(Out):
     family: str | None
     rank_by: list[str]
     weights: dict[str, float]
+    electrolyte: str | None = None
+    ion_activities: dict[str, float] | None = None
+    chloride: float | None = None
 
 
 class Fractions(Out):
@@ -153,6 +169,8 @@ class ScreenRow(Out):
     price_usd_per_kg: float | None
     price_year: int | None
     reason: str
+    caution: str | None = Field(None, description="pitting in chloride, in plain words, where the window meets a "
+                                "passive region")
 
 
 class OperatingWindowOut(Out):
@@ -173,9 +191,41 @@ class ScreenResult(Out):
         description="per element, the approximations its species' ΔfG(T) used; empty at 25 °C")
     results: list[ScreenRow]
     cautions: list[str]
+    warnings: list[str] = Field([], description="doubtful conditions in plain words (pH beyond what water allows, "
+                                "the activity model's range, pitting in chloride)")
+    electrolyte: "ElectrolyteOut | None" = Field(None, description="the recipe's pH, ionic strength and activities")
 
 
 # --- diagrams, points, catalog ---------------------------------------------------------
+
+class ElectrolyteOut(Out):
+    """A recipe at a temperature (same JSON as ``electrosieve electrolyte --json``)."""
+
+    recipe: str
+    temperature_c: float
+    ph: float = Field(description="-log10 a(H+) at the temperature")
+    ionic_strength: float = Field(description="ionic strength [mol/kg]")
+    activities: dict[str, float] = Field(description="free-ion activities, H+ and OH- first")
+    molalities: dict[str, float] = Field(description="free-ion molalities [mol/kg]")
+    water_activity: float
+    model: str = Field(description="the activity model used")
+    validity: str = Field(description="the model's range")
+    warnings: list[str]
+    sources: list[str] = Field(description="keys of the bibliography")
+    cautions: list[str]
+
+
+class SolutionOut(Out):
+    """The dissolved conditions a diagram or point was computed for."""
+
+    electrolyte: ElectrolyteOut | None = None
+    ion_activities: dict[str, float] = Field({}, description="activity of named dissolved species")
+    chloride: float | None = Field(None, description="free chloride activity")
+    warnings: list[str] = Field([], description="doubtful conditions in plain words")
+
+
+ScreenResult.model_rebuild()
+
 
 class DomainOut(Out):
     formula: str
@@ -216,7 +266,7 @@ class DiagramLimits(Out):
     scale: str
 
 
-class DiagramOut(Out):
+class DiagramOut(SolutionOut):
     """An element's exact diagram (same JSON as ``electrosieve diagram --json``)."""
 
     element: str
@@ -229,9 +279,11 @@ class DiagramOut(Out):
     conditions: str = Field(description="the assumptions behind the diagram, in words")
     temperature_notes: list[str] = Field(description="the approximations the species' ΔfG(T) used; empty at 25 °C")
     catalog_version: str
+    ligand_activities: dict[str, float] = Field({}, description="free-ligand activities whose complexes and salts "
+                                                "the diagram holds")
 
 
-class PointOut(Out):
+class PointOut(SolutionOut):
     """What is stable at one point (same JSON as ``electrosieve point --json``)."""
 
     formula: str

@@ -7,18 +7,50 @@ field to its response model in ``app.schemas``).
 
 from electrosieve.engine.catalog import Catalog
 from electrosieve.engine.diagram import Diagram, PointResult
+from electrosieve.engine.electrolyte import Electrolyte
 from electrosieve.engine.screen import Hazard, Scenario, ScreenResult, ScreenRow
+from electrosieve.engine.solution import Solution
 from electrosieve.engine.species import Species
 from electrosieve.engine.thermo import temperature_notes
 from electrosieve.engine.water import conditions_note
 from electrosieve.engine.window import OperatingWindow
 
-from .cautions import CAUTIONS
+from .cautions import CAUTIONS, ELECTROLYTE_CAUTIONS
 
 DIGITS = {"fraction": 12, "share": 9, "energy_ev": 9, "log10": 6, "millivolt": 3, "coordinate": 6, "area": 9,
-          "potential": 9, "ph": 4}
+          "potential": 9, "ph": 4, "significant": 4, "ionic_strength": 5, "water_activity": 4}
 """Decimal places on the wire for each kind of number: fractions of the window, a species' share, energies [eV],
-log10 activities, margins [mV], polygon coordinates [pH, V], areas [pH·V], converted potentials [V], pH values."""
+log10 activities, margins [mV], polygon coordinates [pH, V], areas [pH·V], converted potentials [V], pH values;
+``significant`` is significant digits of activities and molalities, which span many decades."""
+
+
+def _significant(value: float) -> float:
+    return float(f"{value:.{DIGITS['significant']}g}")
+
+
+def electrolyte_payload(result: Electrolyte) -> dict:
+    """A recipe at a temperature: pH, ionic strength [mol/kg], free-ion activities and molalities, the model
+    and its range, warnings, sources and the cautions of handling it (``electrosieve electrolyte --json``)."""
+    return {
+        "recipe": result.recipe, "temperature_c": result.temperature_c, "ph": round(result.ph, DIGITS["ph"]),
+        "ionic_strength": round(result.ionic_strength, DIGITS["ionic_strength"]),
+        "activities": {ion: _significant(a) for ion, a in result.activities.items()},
+        "molalities": {ion: _significant(m) for ion, m in result.molalities.items()},
+        "water_activity": round(result.water_activity, DIGITS["water_activity"]), "model": result.model,
+        "validity": result.validity, "warnings": list(result.warnings), "sources": list(result.sources),
+        "cautions": list(ELECTROLYTE_CAUTIONS),
+    }
+
+
+def solution_payload(solution: Solution) -> dict:
+    """The dissolved conditions every result restates: the recipe's result, per-ion activities, free chloride
+    and the warnings."""
+    return {
+        "electrolyte": None if solution.electrolyte is None else electrolyte_payload(solution.electrolyte),
+        "ion_activities": {name: _significant(a) for name, a in solution.ion_activities},
+        "chloride": None if solution.chloride is None else _significant(solution.chloride),
+        "warnings": list(solution.warnings),
+    }
 
 
 def _points(vertices) -> list[list[float]]:
@@ -30,8 +62,9 @@ def species_payload(species: Species) -> dict:
     return {"formula": species.name, "phase": species.phase, "region": species.region}
 
 
-def diagram_payload(diagram: Diagram, catalog: Catalog) -> dict:
-    """An element's diagram: domains with exact polygons [[pH, E vs SHE], …], boundaries and water lines."""
+def diagram_payload(diagram: Diagram, catalog: Catalog, solution: Solution = Solution()) -> dict:
+    """An element's diagram: domains with exact polygons [[pH, E vs SHE], …], boundaries and water lines, with
+    the dissolved conditions it was drawn for."""
     water = diagram.water
     return {
         "element": diagram.element,
@@ -62,10 +95,12 @@ def diagram_payload(diagram: Diagram, catalog: Catalog) -> dict:
         "temperature_notes": [] if diagram.temperature_c == 25.0 else temperature_notes(
             catalog.systems[diagram.element].species, catalog),
         "catalog_version": catalog.version,
+        "ligand_activities": {name: _significant(a) for name, a in diagram.ligand_activities},
+        **solution_payload(solution),
     }
 
 
-def point_payload(point: PointResult) -> dict:
+def point_payload(point: PointResult, solution: Solution = Solution()) -> dict:
     """What is stable at one point, with the point restated on both scales."""
     return {
         **species_payload(point.species),
@@ -76,6 +111,7 @@ def point_payload(point: PointResult) -> dict:
         "potential_she": round(point.potential_she, DIGITS["potential"]),
         "activity": point.diagram.activity,
         "temperature_c": point.diagram.temperature_c,
+        **solution_payload(solution),
     }
 
 
@@ -135,10 +171,13 @@ def scenario_payload(scenario: Scenario) -> dict:
     """The checked scenario, in the same shape the API accepts (a point as one number, a range as a pair)."""
     point = lambda pair: pair[0] if pair[0] == pair[1] else list(pair)  # noqa: E731
     return {
-        "ph": point(scenario.ph), "potential": point(scenario.potential), "scale": scenario.scale,
+        "ph": point(tuple(round(v, DIGITS["ph"]) for v in scenario.ph)), "potential": point(scenario.potential),
+        "scale": scenario.scale,
         "activity": scenario.activity, "temperature": scenario.temperature, "role": scenario.role,
         "accept": list(scenario.accept), "materials": None if scenario.materials is None else list(scenario.materials),
         "family": scenario.family, "rank_by": list(scenario.rank_by), "weights": dict(scenario.weights),
+        "electrolyte": None if scenario.solution.electrolyte is None else scenario.solution.electrolyte.recipe,
+        "ion_activities": dict(scenario.solution.ion_activities) or None, "chloride": scenario.solution.chloride,
     }
 
 
@@ -168,7 +207,7 @@ def row_payload(row: ScreenRow) -> dict:
         "margin_mv": round(1000 * judged.margin_v, DIGITS["millivolt"]), "margin_capped": judged.margin_capped,
         "hazards": [hazard_payload(h) for h in row.hazards],
         "price_usd_per_kg": material.price_usd_per_kg, "price_year": material.price_year,
-        "verdict": row.verdict, "reason": row.reason,
+        "verdict": row.verdict, "reason": row.reason, "caution": row.caution,
     }
 
 
@@ -184,12 +223,15 @@ def screen_payload(result: ScreenResult) -> dict:
         "temperature_notes": {element: list(notes) for element, notes in result.temperature_notes.items()},
         "results": [row_payload(row) for row in result.rows],
         "cautions": list(CAUTIONS),
+        "warnings": list(result.warnings),
+        "electrolyte": None if result.scenario.solution.electrolyte is None
+        else electrolyte_payload(result.scenario.solution.electrolyte),
     }
 
 
 CSV_COLUMNS = ("rank", "material", "name", "element", "phase", "family", "verdict", "immunity", "passivation", "hydride",
                "corrosion", "instability_ev", "log10_dissolved", "margin_mv", "price_usd_per_kg", "price_year",
-               "hazards", "reason")
+               "hazards", "reason", "caution")
 
 
 def csv_rows(result: dict) -> list[dict]:

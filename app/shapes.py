@@ -19,7 +19,10 @@ _NAMES = {str: "text", dict: "an object", bool: "true/false", type(None): "null"
 
 
 def point_or_pair(value):
-    """``value`` unchanged when it is a number or a list of one or two items; else a readable error."""
+    """``value`` unchanged when it is a number, a list of one or two items, or None (an optional field left out);
+    else a readable error."""
+    if value is None:
+        return value
     if isinstance(value, list):
         if len(value) in (1, 2):
             return value

@@ -20,6 +20,7 @@ from electrosieve.engine.catalog import Catalog
 from electrosieve.engine.errors import InputError
 from electrosieve.engine.ranking import DEFAULT_ORDER
 from electrosieve.engine.screen import Scenario, make_scenario
+from electrosieve.engine.solution import Solution, make_solution
 
 from .models import FieldError, ScenarioIn
 from .ranges import within
@@ -84,6 +85,35 @@ def parse_weights(text: str, field: str = "weights") -> dict[str, float]:
     return weights
 
 
+ION_ACTIVITY_EXAMPLE = "Cu^2+=0.1"
+
+
+def parse_ion_activities(texts, field: str = "ion_activities") -> dict[str, float] | None:
+    """Per-ion activities written ``NAME=A`` (repeated, or comma-separated in one text); None when none given.
+
+    >>> parse_ion_activities(["Cu^2+=0.1", "Ni^2+=1e-3,Zn^2+=0.01"])
+    {'Cu^2+': 0.1, 'Ni^2+': 0.001, 'Zn^2+': 0.01}
+    """
+    found: dict[str, float] = {}
+    for text in [texts] if isinstance(texts, str) else list(texts or []):
+        for part in str(text).split(","):
+            if not part.strip():
+                continue
+            name, sep, value = part.rpartition("=")
+            if not sep or not name.strip() or not value.strip():
+                raise InputError(f"{field} must look like {ION_ACTIVITY_EXAMPLE} (given {part.strip()!r})", field=field)
+            found[name.strip()] = parse_number(value, f"{field} {name.strip()}")
+    return found or None
+
+
+def cli_solution(*, electrolyte: str | None, ion_activity: list[str] | None, chloride: str | None, temperature: float,
+                 ph=None, catalog: Catalog) -> Solution:
+    """The dissolved conditions of ``--electrolyte``, ``--ion-activity`` (repeated) and ``--chloride`` (text)."""
+    return make_solution(catalog=catalog, temperature_c=temperature, ph=ph, electrolyte=electrolyte,
+                         ion_activities=parse_ion_activities(ion_activity, "--ion-activity"),
+                         chloride=None if chloride is None else parse_number(chloride, "--chloride"))
+
+
 def parse_list(text: str | None) -> list[str] | None:
     """Comma-separated words, blanks dropped; None stays None."""
     return None if text is None else [part.strip() for part in text.split(",") if part.strip()]
@@ -99,20 +129,25 @@ def checked_scenario(scenario: ScenarioIn, catalog: Catalog) -> Scenario:
     return make_scenario(**scenario.engine_arguments(), catalog=catalog)
 
 
-def cli_scenario(*, ph: str, potential: str, scale: str, activity: str, temperature: str, role: str,
+def cli_scenario(*, ph: str | None, potential: str, scale: str, activity: str, temperature: str, role: str,
                  accept: str | None, materials: str | None, family: str | None, rank_by: str | None,
-                 weights: str | None, catalog: Catalog) -> Scenario:
-    """The scenario of ``electrosieve screen``'s flags (all text), checked by the engine."""
+                 weights: str | None, catalog: Catalog, electrolyte: str | None = None,
+                 ion_activity: list[str] | None = None, chloride: str | None = None) -> Scenario:
+    """The scenario of ``electrosieve screen``'s flags (all text), checked by the engine; without ``--ph`` the
+    ``--electrolyte`` recipe's pH is used."""
     accepted = parse_list(accept)
     if accepted is not None and not accepted:
         raise InputError("--accept must name at least one region", field="--accept")
     weighed = None if weights is None else {key: within(weight, f"--weights {key}", "weight")
                                             for key, weight in parse_weights(weights, "--weights").items()}
     return make_scenario(
-        ph=list(parse_range(ph, "--ph", kind="ph")), potential=list(parse_range(potential, "--potential", kind="potential")),
-        scale=scale, activity=parse_number(activity, "--activity"), temperature=parse_number(temperature, "--temperature"),
+        ph=None if ph is None else list(parse_range(ph, "--ph", kind="ph")),
+        potential=list(parse_range(potential, "--potential", kind="potential")), scale=scale,
+        activity=parse_number(activity, "--activity"), temperature=parse_number(temperature, "--temperature"),
         role=role, accept=accepted, materials=parse_list(materials), family=family, rank_by=parse_list(rank_by),
-        weights=weighed, catalog=catalog)
+        weights=weighed, catalog=catalog,
+        electrolyte=electrolyte, ion_activities=parse_ion_activities(ion_activity, "--ion-activity"),
+        chloride=None if chloride is None else parse_number(chloride, "--chloride"))
 
 
 UNION_TAG = re.compile(r"^(float|int|str|bool|none|list\[.*\]|dict\[.*\]|literal\[.*\]|function-.*|constrained-.*)$")
@@ -142,7 +177,8 @@ def field_errors(error: ValidationError, where: str, rename: dict | None = None,
 
 
 SCENARIO_PARAMS = ("ph_low", "ph_high", "potential_low", "potential_high", "scale", "temperature", "activity",
-                   "role", "accept", "pick", "family", "materials", "rank_by", "weights")
+                   "role", "accept", "pick", "family", "materials", "rank_by", "weights", "electrolyte",
+                   "ion_activities", "chloride")
 LIST_PARAMS = ("accept", "materials", "compare")
 
 ENGINE_FIELD_TO_PARAM = {"ph": "ph_low", "potential": "potential_low", "materials": "materials"}
@@ -177,6 +213,9 @@ class ViewQuery(BaseModel):
     weights: str = ""
     compare: list[str] = []
     axis: str = ""
+    electrolyte: str = ""
+    ion_activities: str = ""
+    chloride: str = ""
 
     @classmethod
     def from_params(cls, params) -> "ViewQuery":
@@ -217,6 +256,9 @@ class ViewQuery(BaseModel):
             pick="names" if materials else ("family" if family else "all"), family=family, materials=list(materials),
             rank_by="" if list(rank_by) == list(DEFAULT_ORDER) else ",".join(rank_by),
             weights=",".join(f"{k}:{_number_text(v)}" for k, v in (echo.get("weights") or {}).items()),
+            electrolyte=echo.get("electrolyte") or "",
+            ion_activities=",".join(f"{k}={_number_text(v)}" for k, v in (echo.get("ion_activities") or {}).items()),
+            chloride="" if echo.get("chloride") is None else _number_text(echo["chloride"]),
         )
 
     def params(self, *, scenario_only: bool = False) -> list[tuple[str, str]]:
@@ -256,9 +298,15 @@ class ViewQuery(BaseModel):
                 errors.append(FieldError(loc=["query", name], msg=error.message))
                 return None
 
-        ph_low, ph_high = number("ph_low"), number("ph_high", required=False)
+        ph_low, ph_high = number("ph_low", required=not self.electrolyte), number("ph_high", required=False)
         e_low, e_high = number("potential_low"), number("potential_high", required=False)
         temperature, activity = number("temperature"), number("activity")
+        chloride = number("chloride", required=False)
+        ion_activities = None
+        try:
+            ion_activities = parse_ion_activities(self.ion_activities, "ion_activities")
+        except InputError as error:
+            errors.append(FieldError(loc=["query", "ion_activities"], msg=error.message))
         weights = None
         if self.weights:
             try:
@@ -282,7 +330,10 @@ class ViewQuery(BaseModel):
             "family": self.family if picked == "family" else None,
             "rank_by": [k.strip().lower() for k in self.rank_by.split(",") if k.strip()] or None,
             "weights": weights,
+            "electrolyte": self.electrolyte or None, "ion_activities": ion_activities, "chloride": chloride,
         }
+        if ph_low is None:
+            candidate["ph"] = None if ph_high is None else ph_high
         try:
             return ScenarioIn.model_validate(candidate), []
         except ValidationError as error:

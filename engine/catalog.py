@@ -20,7 +20,10 @@ from .errors import CatalogError
 from .lint import check_catalog
 from .materials import load_materials
 from .formula import FormulaError, parse_formula
-from .species import PHASES, Species
+from .species import PHASES, SOLVENT_ELEMENTS, Ligand, Species
+
+LIGANDS_DIR = "ligands"
+"""Folder of ``data/`` holding one file per ligand (chloride, sulfate, …)."""
 
 WATER_SPECIES_FILE = "water.toml"
 """Species file holding H2O, H+, OH-, H2 and O2 (the solvent and its ions)."""
@@ -122,6 +125,99 @@ class ScaleRow(_Strict):
 
 
 
+class LigandRow(SpeciesRow):
+    """One ``[[species]]`` row of a ligand file: a species row with the metal system it joins."""
+
+    element: str
+
+
+@dataclass(frozen=True)
+class LigandSet:
+    """One ligand: the free ligand, its counting element's standard state, and its species per metal."""
+
+    ligand: Ligand
+    reference: Species
+    species: dict[str, tuple[Species, ...]]
+    path: str
+
+
+def _with_uncertainty(values: dict, classes: dict) -> dict:
+    """A ligand row's values with ``from_memory`` a bool and a missing uncertainty filled from its data class."""
+    values = {**values, "from_memory": bool(values["from_memory"])}
+    if values["uncertainty"] is None and classes:
+        values["uncertainty"] = classes[uncertainty_class(values["source"], values["from_memory"], classes)].uncertainty
+    return values
+
+
+def _ligand_file_species(path: Path, table: dict, entry: str, element: str, classes: dict) -> Species:
+    try:
+        row = SpeciesRow.model_validate(table)
+    except ValidationError as error:
+        raise CatalogError(describe(error, path, entry)) from None
+    values = row.model_dump()
+    if row.dgf == 0.0 and values["uncertainty"] is None:
+        values["uncertainty"] = 0.0  # the element in its reference state: dgf = 0 by definition
+    return Species.create(element, **_with_uncertainty(values, classes))
+
+
+def load_ligand_file(path: Path, systems: dict, sources: dict, classes: dict | None = None) -> LigandSet:
+    """Read and check one ligand file against the metal ``systems`` and the bibliography ``sources``."""
+    document = read_toml(path)
+    counting = document.get("counting_element")
+    if not isinstance(counting, str) or not isinstance(document.get("free"), dict) \
+            or not isinstance(document.get("reference"), dict):
+        raise CatalogError(f"{path}: needs 'counting_element', a [free] ligand and the element's [reference] state")
+    reference = _ligand_file_species(path, document["reference"], "[reference]", counting, classes or {})
+    if reference.composition.keys() != {counting} or reference.dgf != 0.0:
+        raise CatalogError(f"{path}: [reference]: field 'formula': the element {counting} in its standard state, dgf = 0")
+    free = _ligand_file_species(path, document["free"], "[free]", counting, classes or {})
+    if counting not in free.composition or set(free.composition) - {counting, *SOLVENT_ELEMENTS}:
+        raise CatalogError(f"{path}: [free]: field 'formula': must contain {counting} and otherwise only H and O")
+    ligand = Ligand(species=free, counting_element=counting)
+    by_metal: dict[str, list[Species]] = {}
+    for index, row in enumerate(validate_rows(path, document.get("species", []), LigandRow, "species")):
+        where = f"{path}: species #{index + 1} ({row.formula})"
+        if row.element not in systems:
+            raise CatalogError(f"{where}: field 'element': no species file for {row.element!r}")
+        values = row.model_dump()
+        element = values.pop("element")
+        species = Species.create(element, ligand=ligand, **_with_uncertainty(values, classes or {}))
+        extra = set(species.composition) - {element, counting, *SOLVENT_ELEMENTS}
+        if extra or species.metal_atoms < 1 or species.ligand_count < 1 \
+                or species.composition[counting] % free.composition[counting]:
+            raise CatalogError(f"{where}: field 'formula': must hold {element}, whole ligands {free.name} and "
+                               "otherwise only H and O")
+        if min(species.hydrogen_atoms, species.oxygen_atoms) < 0:
+            raise CatalogError(f"{where}: field 'formula': fewer H or O atoms than its ligands hold")
+        taken = {s.name for s in systems[element].species} | {s.name for s in by_metal.get(element, [])}
+        if species.name in taken:
+            raise CatalogError(f"{where}: {species.name!r} appears twice in the {element} system")
+        by_metal.setdefault(element, []).append(species)
+    for species in (reference, free, *(s for group in by_metal.values() for s in group)):
+        if species.source not in sources:
+            raise CatalogError(f"{path}: species {species.name!r}: field 'source': unknown source key "
+                               f"{species.source!r} (add it to sources.toml)")
+    return LigandSet(ligand=ligand, reference=reference, path=str(path),
+                     species={element: tuple(group) for element, group in by_metal.items()})
+
+
+def load_ligands(directory: Path, systems: dict, sources: dict, classes: dict | None = None) -> dict[str, LigandSet]:
+    """Every ligand file of ``directory`` (none if it does not exist), keyed by the free ligand's name.
+
+    A ligand file describes one ligand L: its free species (``Cl^-``), the standard state of the element
+    counting it (Cl2 gas, for the temperature method of ``engine.thermo``) and ``[[species]]`` rows, each
+    naming the metal system it joins. Those species join their metal's diagram only when the ligand's
+    activity is given (``engine.diagram``). Another ligand is added by data alone: a new file.
+    """
+    ligands: dict[str, LigandSet] = {}
+    for path in sorted(Path(directory).glob("*.toml")) if Path(directory).is_dir() else []:
+        found = load_ligand_file(path, systems, sources, classes)
+        if found.ligand.name in ligands:
+            raise CatalogError(f"{path}: ligand {found.ligand.name} is already described in {ligands[found.ligand.name].path}")
+        ligands[found.ligand.name] = found
+    return ligands
+
+
 @dataclass(frozen=True)
 class ElementSystem:
     """All species of one element, in file order, with the file's flags and notes."""
@@ -153,6 +249,7 @@ class Catalog:
     materials: dict = field(default_factory=dict)
     version: str = ""
     uncertainty_classes: dict = field(default_factory=dict)
+    ligands: dict = field(default_factory=dict)
 
     def system(self, element: str) -> ElementSystem:
         """The element system for ``element`` (case-insensitive), or a clear error listing the known ones."""
@@ -273,12 +370,13 @@ def load_catalog(data_dir: Path | None = None, overlay: Path | None = None) -> C
             water = {s.name: s for s in system.species}
         else:
             systems[parsed.element] = system
+    ligands = load_ligands(base / LIGANDS_DIR, systems, sources, classes)
     read = [base / "sources.toml", base / "scales.toml", base / "uncertainty.toml", base / "materials.toml",
-            *species_files.values()]
+            *species_files.values(), *(Path(found.path) for found in ligands.values())]
     if overlay is not None:
         read.append(overlay / "sources.toml")
     catalog = Catalog(systems=systems, water=water, sources=sources, scales=scales, version=_digest(read),
-                      uncertainty_classes=classes)
+                      uncertainty_classes=classes, ligands=ligands)
     check_catalog(catalog)
     materials_path = base / "materials.toml"
     if materials_path.exists():

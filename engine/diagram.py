@@ -2,7 +2,7 @@
 
 This is the engine's front door: it checks the inputs, builds the free-energy
 planes (``planes``), computes the exact domains (``domains``) and caches the
-result per (element, activity, temperature, limits).
+result per (element, activity, temperature, limits, ion activities, ligand activities).
 """
 
 from dataclasses import dataclass
@@ -14,8 +14,10 @@ from .catalog import Catalog, ElementSystem, default_catalog
 from .constants import ZERO_CELSIUS
 from .domains import Boundary, Domain, PlotLimits, boundaries, stability_domains, stable_index_at
 from .errors import InputError
+from .formula import FormulaError, parse_formula
 from .geometry import stack
-from .inputs import DEFAULT_ACTIVITY, check_activity, check_number, check_temperature
+from .inputs import (ACTIVITY_RANGE, DEFAULT_ACTIVITY, LIGAND_ACTIVITY_RANGE, check_activity, check_number,
+                     check_temperature)
 from .planes import Planes, build_planes
 from .scales import canonical_scale, to_she
 from .species import Species
@@ -34,6 +36,8 @@ class Diagram:
     domains: tuple[Domain, ...]
     boundaries: tuple[Boundary, ...]
     water: WaterLines
+    ion_activities: tuple[tuple[str, float], ...] = ()
+    ligand_activities: tuple[tuple[str, float], ...] = ()
 
     @cached_property
     def solid_domains(self) -> tuple[Domain, ...]:
@@ -67,37 +71,119 @@ def water_gibbs(catalog: Catalog, temperature_k: float) -> float:
     return formation_gibbs(catalog.water["H2O"], temperature_k, catalog)
 
 
-def planes_for(system: ElementSystem, catalog: Catalog, activity: float, temperature_c: float) -> Planes:
-    """The free-energy planes of every species of ``system``."""
+def planes_for(system: ElementSystem, catalog: Catalog, activity: float, temperature_c: float, *,
+               ion_activities: tuple[tuple[str, float], ...] = (),
+               ligand_activities: tuple[tuple[str, float], ...] = ()) -> Planes:
+    """The free-energy planes of every species of ``system``, with the species of each ligand given."""
     temperature_k = temperature_c + ZERO_CELSIUS
-    return build_planes(system.species, water_gibbs(catalog, temperature_k), activity, temperature_k, catalog)
+    species = system.species + tuple(s for name, _ in ligand_activities
+                                     for s in catalog.ligands[name].species.get(system.element, ()))
+    return build_planes(species, water_gibbs(catalog, temperature_k), activity, temperature_k, catalog,
+                        ion_activities=ion_activities, ligand_activities=ligand_activities)
+
+
+def check_ion_activities(ion_activities, system: ElementSystem | None, catalog: Catalog) -> tuple[tuple[str, float], ...]:
+    """The (name, activity) pairs of ``ion_activities`` that concern ``system`` (every element's when None),
+    checked and sorted.
+
+    Names of dissolved species of other elements are accepted and left out (a screen passes one set
+    to every element), as are ions of elements without a species file (K^+, Na^+ of a recipe); any
+    other name no dissolved species of the catalog bears is an error.
+    """
+    if not ion_activities:
+        return ()
+    if not isinstance(ion_activities, dict):
+        raise InputError(f"ion_activities must map species names to activities, e.g. {{'Cu^2+': 0.1}} "
+                         f"(given {ion_activities!r})", field="ion_activities")
+    known = {s.name for other in catalog.systems.values() for s in other.species if s.is_dissolved}
+    known |= {s.name for found in catalog.ligands.values() for group in found.species.values()
+              for s in group if s.is_dissolved}
+    if system is None:
+        own = known
+    else:
+        own = {s.name for s in system.species if s.is_dissolved}
+        own |= {s.name for found in catalog.ligands.values() for s in found.species.get(system.element, ())
+                if s.is_dissolved}
+    chosen = []
+    for name, value in ion_activities.items():
+        if name not in known and not _foreign_ion(name, catalog):
+            raise InputError(f"ion_activities: no dissolved species is called {name!r}; write names as "
+                             "`electrosieve sources ELEMENT` shows them, e.g. Cu^2+, HZnO2^-, AuCl4^-",
+                             field="ion_activities")
+        value = check_number(value, f"ion_activities[{name}]", *ACTIVITY_RANGE)
+        if name in own:
+            chosen.append((name, value))
+    return tuple(sorted(chosen))
+
+
+def _foreign_ion(name, catalog: Catalog) -> bool:
+    """True for an ion such as K^+ whose elements (besides H and O) have no species file in ``catalog``."""
+    try:
+        elements = set(parse_formula(str(name).partition("^")[0])) - {"H", "O"}
+    except FormulaError:
+        return False
+    return bool(elements) and "^" in str(name) and not elements & (set(catalog.systems) | _ligand_elements(catalog))
+
+
+def _ligand_elements(catalog: Catalog) -> set[str]:
+    return {found.ligand.counting_element for found in catalog.ligands.values()}
+
+
+def check_ligand_activities(ligand_activities, catalog: Catalog) -> tuple[tuple[str, float], ...]:
+    """The (ligand, activity) pairs of ``ligand_activities``, checked against the catalog's ligands and sorted."""
+    if not ligand_activities:
+        return ()
+    if not isinstance(ligand_activities, dict):
+        raise InputError(f"ligand_activities must map ligands to activities, e.g. {{'Cl^-': 1.0}} "
+                         f"(given {ligand_activities!r})", field="ligand_activities")
+    chosen = []
+    for name, value in ligand_activities.items():
+        if name not in catalog.ligands:
+            known = ", ".join(sorted(catalog.ligands)) or "none"
+            raise InputError(f"ligand_activities: unknown ligand {name!r}; known ligands: {known}",
+                             field="ligand_activities")
+        chosen.append((name, check_number(value, f"ligand_activities[{name}]", *LIGAND_ACTIVITY_RANGE)))
+    return tuple(sorted(chosen))
 
 
 def diagram(element: str, activity: float = DEFAULT_ACTIVITY, temperature_c: float = 25.0,
-            limits: PlotLimits = PlotLimits(), catalog: Catalog | None = None) -> Diagram:
+            limits: PlotLimits = PlotLimits(), catalog: Catalog | None = None, *,
+            ion_activities: dict[str, float] | None = None,
+            ligand_activities: dict[str, float] | None = None) -> Diagram:
     """The exact E–pH diagram of ``element`` at ``activity`` and ``temperature_c`` [°C] within ``limits``.
+
+    ``ion_activities`` sets the activity of named dissolved species (``{"Cu^2+": 0.1}``) in place of
+    ``activity``; ``ligand_activities`` (``{"Cl^-": 1.0}``) adds the complexes and salts of those
+    ligands (``data/ligands/``) at the given free-ligand activities.
 
     >>> d = diagram("Zn")
     >>> sorted({dom.region for dom in d.domains})
     ['corrosion', 'immunity', 'passivation']
+    >>> diagram("Ag", ligand_activities={"Cl^-": 0.01}).stable_species_at(5.0, 0.4).name
+    'AgCl'
     """
     catalog = catalog or default_catalog()
     system = catalog.system(element)
     return _cached_diagram(catalog, system.element, check_activity(activity),
-                           check_temperature(temperature_c), check_limits(limits))
+                           check_temperature(temperature_c), check_limits(limits),
+                           check_ion_activities(ion_activities, system, catalog),
+                           check_ligand_activities(ligand_activities, catalog))
 
 
 @lru_cache(maxsize=512)
 def _cached_diagram(catalog: Catalog, element: str, activity: float, temperature_c: float,
-                    limits: PlotLimits) -> Diagram:
+                    limits: PlotLimits, ion_activities: tuple[tuple[str, float], ...] = (),
+                    ligand_activities: tuple[tuple[str, float], ...] = ()) -> Diagram:
     system = catalog.systems[element]
-    planes = planes_for(system, catalog, activity, temperature_c)
+    planes = planes_for(system, catalog, activity, temperature_c, ion_activities=ion_activities,
+                        ligand_activities=ligand_activities)
     domains = stability_domains(planes, limits)
     temperature_k = temperature_c + ZERO_CELSIUS
     return Diagram(
         element=element, activity=activity, temperature_c=temperature_c, limits=limits, planes=planes,
         domains=tuple(domains), boundaries=tuple(boundaries(planes, domains)),
         water=water_lines(water_gibbs(catalog, temperature_k), temperature_k),
+        ion_activities=ion_activities, ligand_activities=ligand_activities,
     )
 
 

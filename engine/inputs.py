@@ -8,14 +8,17 @@ import math
 
 from .errors import InputError
 
-__all__ = ["ACTIVITY_RANGE", "DEFAULT_ACTIVITY", "TEMPERATURE_RANGE_C", "check_activity", "check_number",
-           "check_temperature"]
+__all__ = ["ACTIVITY_RANGE", "DEFAULT_ACTIVITY", "LIGAND_ACTIVITY_RANGE", "TEMPERATURE_RANGE_C", "check_activity",
+           "check_number", "check_temperature"]
 
 DEFAULT_ACTIVITY = 1e-6
 """Activity of every dissolved species: 10^-6, the usual corrosion convention (Pourbaix 1966, ch. 3) [common practice]."""
 
 ACTIVITY_RANGE = (1e-8, 1.0)
 """Allowed dissolved-species activities."""
+
+LIGAND_ACTIVITY_RANGE = (1e-8, 20.0)
+"""Allowed free-ligand activities (saturated NaCl has a(Cl−) near 6; common practice)."""
 
 TEMPERATURE_RANGE_C = (0.0, 150.0)
 """Allowed temperatures [°C]: liquid water at or above its saturation pressure."""

@@ -13,6 +13,7 @@ from functools import cached_property
 from threading import Lock
 
 from .catalog import Catalog, default_catalog
+from .chloride import pitting_caution
 from .diagram import Diagram, diagram
 from .domains import PlotLimits
 from .errors import InputError
@@ -20,6 +21,7 @@ from .inputs import DEFAULT_ACTIVITY, check_activity, check_temperature
 from .materials import FAMILIES, Material
 from .metrics import Piece, largest_gap, margin, overlays, region_fractions
 from .ranking import DEFAULT_ORDER, RANK_KEYS, check_order, check_weights, rank, reason
+from .solution import Solution, make_solution
 from .thermo import temperature_notes
 from .water import conditions_note
 from .window import OperatingWindow, operating_window
@@ -50,12 +52,18 @@ class Scenario:
     family: str | None = None
     rank_by: tuple[str, ...] = DEFAULT_ORDER
     weights: dict = field(default_factory=dict)
+    solution: Solution = Solution()
+    """The electrolyte recipe, per-ion and ligand activities and the warnings they raised (``engine.solution``)."""
 
 
-def make_scenario(*, ph, potential, scale: str = "SHE", activity=DEFAULT_ACTIVITY, temperature=25.0,
+def make_scenario(*, ph=None, potential, scale: str = "SHE", activity=DEFAULT_ACTIVITY, temperature=25.0,
                   role: str = "anode", accept=None, materials=None, family=None, rank_by=None, weights=None,
-                  catalog: Catalog | None = None) -> Scenario:
-    """A checked :class:`Scenario`; every problem is an :class:`InputError` naming its field."""
+                  catalog: Catalog | None = None, electrolyte: str | None = None, ion_activities=None,
+                  chloride=None) -> Scenario:
+    """A checked :class:`Scenario`; every problem is an :class:`InputError` naming its field.
+
+    Without ``ph`` the ``electrolyte`` recipe's computed pH at the temperature is used (a point).
+    """
     catalog = catalog or default_catalog()
     role = str(role).strip().lower()
     if role not in ROLES:
@@ -81,13 +89,30 @@ def make_scenario(*, ph, potential, scale: str = "SHE", activity=DEFAULT_ACTIVIT
             raise InputError("materials is empty: leave it out to screen every material", field="materials")
         ids = tuple(dict.fromkeys(material_id(catalog, m) for m in materials))
     temperature = check_temperature(temperature)
+    solution = make_solution(catalog=catalog, temperature_c=temperature, ph=_given_ph(ph),
+                             electrolyte=electrolyte, ion_activities=ion_activities, chloride=chloride)
+    if ph is None:
+        if solution.electrolyte is None:
+            raise InputError("ph is required (a number or a range), unless an electrolyte recipe gives it", field="ph")
+        ph = solution.electrolyte.ph
     window = operating_window(catalog.scales, ph, potential, scale, temperature, PlotLimits())
     return Scenario(
         ph=window.ph, potential=window.potential, window=window, scale=window.scale, activity=check_activity(activity),
         temperature=temperature, role=role, accept=accept_tuple, materials=ids, family=family,
         rank_by=check_order(rank_by) if rank_by is not None else DEFAULT_ORDER,
-        weights=check_weights(weights) if weights else {},
+        weights=check_weights(weights) if weights else {}, solution=solution,
     )
+
+
+def _given_ph(ph):
+    """A given pH as numbers to check for the warnings, or None when it is left out or not yet checked numbers
+    (``operating_window`` then names the problem)."""
+    values = [ph] if isinstance(ph, (int, float)) else (list(ph) if isinstance(ph, (list, tuple)) else [])
+    if not values or len(values) > 2 or not all(isinstance(v, (int, float)) and not isinstance(v, bool) for v in values):
+        return None
+    if not all(-1e3 < float(v) < 1e3 for v in values):
+        return None
+    return float(values[0]) if len(values) == 1 else (float(values[0]), float(values[-1]))
 
 
 def material_id(catalog: Catalog, given: str) -> str:
@@ -189,6 +214,8 @@ class ScreenRow:
     reason: str = ""
     """One line in plain words (``engine.ranking.reason``)."""
     rank: int = 0
+    caution: str | None = None
+    """Pitting in chloride, in plain words, when the window meets a passive region (``engine.chloride``)."""
 
     @property
     def id(self) -> str:
@@ -231,6 +258,8 @@ class ScreenResult:
     """pH of neutral water at the scenario's temperature."""
     temperature_notes: dict[str, tuple[str, ...]]
     """Per element, the approximations its species' ΔfG(T) used; empty at 25 °C."""
+    warnings: tuple[str, ...] = ()
+    """Doubtful conditions in plain words: the pH water allows, the recipe's model range, pitting in chloride."""
 
     @property
     def window(self) -> OperatingWindow:
@@ -238,7 +267,8 @@ class ScreenResult:
 
 
 class VerdictStore:
-    """Element verdicts per question — (catalog, activity, temperature, window, accepted regions) — for
+    """Element verdicts per question — (catalog, activity, temperature, window, accepted regions, ion and
+    ligand activities) — for
     the ``size`` questions asked most recently; safe to share between threads.
 
     The same question comes back often (the page, its CSV, the saved shortlist, every opening of a
@@ -288,11 +318,14 @@ def judge_elements(catalog: Catalog, scenario: Scenario, elements: list[str]) ->
     """
     window = scenario.window
     accept = tuple(sorted(scenario.accept))
-    question = (catalog, scenario.activity, scenario.temperature, window, accept)
+    solution = scenario.solution
+    question = (catalog, scenario.activity, scenario.temperature, window, accept, solution.ion_activities,
+                solution.ligand_activities)
     known = VERDICTS.known(question)
     missing = [element for element in elements if element not in known]
     if missing:
-        diagrams = [diagram(element, scenario.activity, scenario.temperature, catalog=catalog) for element in missing]
+        diagrams = [diagram(element, scenario.activity, scenario.temperature, catalog=catalog,
+                            **solution.diagram_arguments()) for element in missing]
         gas = gas_evolution(window, diagrams[0].water)
         computed = {}
         for element, result, overlay in zip(missing, diagrams, overlays(diagrams, window)):
@@ -308,12 +341,15 @@ def judge_elements(catalog: Catalog, scenario: Scenario, elements: list[str]) ->
     return {element: known[element] for element in elements}
 
 
-def screen_material(material: Material, window: OperatingWindow, verdict: ElementVerdict) -> ScreenRow:
-    """One candidate judged (unranked), given its element's verdict."""
+def screen_material(material: Material, window: OperatingWindow, verdict: ElementVerdict,
+                    chloride: float | None = None) -> ScreenRow:
+    """One candidate judged (unranked), given its element's verdict and the free chloride activity."""
     energy, energy_at = largest_gap(verdict.gaps[verdict.diagram.planes.index_of[material.phase]], window)
     toxic = tuple(Hazard("toxic", h.species, h.note) for h in material.hazards if h.species in verdict.met)
     row = ScreenRow(material=material, judged=verdict, window_dimension=window.dimension, instability_ev=energy,
-                    instability_at=energy_at, hazards=toxic + verdict.gas)
+                    instability_at=energy_at, hazards=toxic + verdict.gas,
+                    caution=pitting_caution("passivation" if verdict.fractions.get("passivation", 0.0) > 0 else "",
+                                            material.element, chloride))
     return replace(row, reason=reason(row))
 
 
@@ -330,7 +366,8 @@ def screen(scenario: Scenario, catalog: Catalog | None = None) -> ScreenResult:
     catalog = catalog or default_catalog()
     chosen = candidates(catalog, scenario)
     verdicts = judge_elements(catalog, scenario, list(dict.fromkeys(m.element for m in chosen)))
-    rows = [screen_material(m, scenario.window, verdicts[m.element]) for m in chosen]
+    chloride = scenario.solution.chloride
+    rows = [screen_material(m, scenario.window, verdicts[m.element], chloride) for m in chosen]
     ranked = rank(rows, scenario.rank_by, scenario.weights or None)
     water = next(iter(verdicts.values())).diagram.water
     return ScreenResult(
@@ -340,4 +377,14 @@ def screen(scenario: Scenario, catalog: Catalog | None = None) -> ScreenResult:
         neutral_ph=water.neutral_ph,
         temperature_notes={} if scenario.temperature == 25.0 else {
             element: tuple(temperature_notes(catalog.systems[element].species, catalog)) for element in verdicts},
+        warnings=scenario.solution.warnings + pitting_warning(rows, chloride),
     )
+
+
+def pitting_warning(rows: list[ScreenRow], chloride: float | None) -> tuple[str, ...]:
+    """One line naming the candidates judged passive in chloride (each row's ``caution`` says more)."""
+    passive = [row.id for row in rows if row.caution]
+    if not passive:
+        return ()
+    return (f"chloride (activity {chloride:.2g}) can pit the passive films of {', '.join(passive)}: "
+            "passive here does not mean safe in chloride; see each row's caution",)

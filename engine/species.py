@@ -6,7 +6,11 @@ hydrogen ions and electrons:
     m M + o H2O  ->  M_m H_h O_o^z + (2o - h) H+ + (2o - h + z) e-
 
 so its molar Gibbs energy relative to the metal is linear in pH and E
-(Pourbaix 1966, Atlas of Electrochemical Equilibria, ch. 2).
+(Pourbaix 1966, Atlas of Electrochemical Equilibria, ch. 2). A species that
+binds n ligands L^y (Cl^-, SO4^2-; see ``engine.ligands``) takes them from the
+solution as well, and h and o count only the atoms outside the ligands:
+
+    m M + o H2O + n L^y  ->  M_m H_h O_o L_n^z + (2o - h) H+ + (2o - h + z - n·y) e-
 """
 
 from dataclasses import dataclass, field
@@ -24,6 +28,19 @@ SOLVENT_ELEMENTS = ("H", "O")
 
 REGIONS = ("immunity", "passivation", "hydride", "corrosion")
 """The regions a species' domain belongs to, from least to most severe (see :attr:`Species.region`)."""
+
+
+@dataclass(frozen=True)
+class Ligand:
+    """A ligand taken up from the solution: its free species (``Cl^-``) and the element counting it (``Cl``)."""
+
+    species: "Species"
+    counting_element: str
+
+    @property
+    def name(self) -> str:
+        """The free ligand's name, as ligand activities are keyed (``Cl^-``, ``SO4^2-``)."""
+        return self.species.name
 
 
 @dataclass(frozen=True)
@@ -48,6 +65,7 @@ class Species:
     label: str | None = None
     note: str = ""
     composition: dict[str, int] = field(default_factory=dict, compare=False, hash=False)
+    ligand: Ligand | None = None
 
     @classmethod
     def create(cls, element: str, **values) -> "Species":
@@ -69,14 +87,26 @@ class Species:
         return self.composition.get(self.element, 0)
 
     @property
+    def ligand_count(self) -> int:
+        """n: ligands bound in one formula unit (0 without a ligand)."""
+        if self.ligand is None:
+            return 0
+        element = self.ligand.counting_element
+        return self.composition.get(element, 0) // self.ligand.species.composition[element]
+
+    def _outside_ligands(self, element: str) -> int:
+        inside = self.ligand_count * self.ligand.species.composition.get(element, 0) if self.ligand else 0
+        return self.composition.get(element, 0) - inside
+
+    @property
     def hydrogen_atoms(self) -> int:
-        """h: hydrogen atoms in one formula unit (0 for the hydrogen-free species)."""
-        return self.composition.get("H", 0) if self.element != "H" else 0
+        """h: hydrogen atoms in one formula unit outside its ligands (0 for the hydrogen-free species)."""
+        return self._outside_ligands("H") if self.element != "H" else 0
 
     @property
     def oxygen_atoms(self) -> int:
-        """o: oxygen atoms in one formula unit."""
-        return self.composition.get("O", 0) if self.element != "O" else 0
+        """o: oxygen atoms in one formula unit outside its ligands."""
+        return self._outside_ligands("O") if self.element != "O" else 0
 
     @property
     def protons_released(self) -> int:
@@ -85,8 +115,16 @@ class Species:
 
     @property
     def electrons_released(self) -> int:
-        """2o - h + z: electrons released when the species forms from M and H2O."""
-        return self.protons_released + self.charge
+        """2o - h + z - n·y: electrons released when the species forms from M, H2O and its ligands.
+
+        >>> chloride = Species.create("Cl", formula="Cl", charge=-1, phase="aqueous", dgf=-131.228, source="x")
+        >>> gold = Species.create("Au", formula="AuCl4", charge=-1, phase="aqueous", dgf=-235.14, source="x",
+        ...                       ligand=Ligand(chloride, "Cl"))
+        >>> gold.ligand_count, gold.electrons_released
+        (4, 3)
+        """
+        return self.protons_released + self.charge - (self.ligand_count * self.ligand.species.charge
+                                                       if self.ligand else 0)
 
     @property
     def is_dissolved(self) -> bool:

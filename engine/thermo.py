@@ -206,6 +206,11 @@ def _element_states(catalog) -> dict[str, tuple[float | None, float | None]]:
                 states[element] = (None if species.s is None else species.s / atoms,
                                    None if species.cp is None else species.cp / atoms)
                 break
+    for found in getattr(catalog, "ligands", {}).values():   # Cl2(g), S(rhombic): a ligand's counting element
+        reference = found.reference
+        atoms = reference.composition[reference.element]
+        states[reference.element] = (None if reference.s is None else reference.s / atoms,
+                                     None if reference.cp is None else reference.cp / atoms)
     for element, gas in (("H", "H2"), ("O", "O2")):
         row = catalog.water.get(gas)
         if row is not None:

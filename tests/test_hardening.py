@@ -508,7 +508,7 @@ def test_cli_numbers_are_range_checked_as_the_api_checks_them(argv, field, capsy
 
 
 @pytest.mark.parametrize("value, given", [([1, 2, 3], "a list of 3"), ([], "an empty list"), ("7", "text"),
-                                          (None, "null"), ({"low": 1}, "an object")])
+                                          ({"low": 1}, "an object")])
 def test_a_point_or_range_of_the_wrong_shape_is_told_so(client, value, given):
     for field in ("ph", "potential"):
         body = {"ph": 7, "potential": 0.0, field: value}
@@ -516,6 +516,16 @@ def test_a_point_or_range_of_the_wrong_shape_is_told_so(client, value, given):
         assert answer.status_code == 422
         assert answer.json()["detail"] == [{"loc": ["body", field], "type": "point_or_pair",
                                             "msg": f"{field}: must be one number or a pair [low, high] (given {given})"}]
+
+
+def test_a_missing_ph_or_potential_is_told_what_is_needed(client):
+    # pH may come from an electrolyte recipe, so a null pH asks for one or the other; the potential is always needed
+    answer = client.post("/api/v1/screen", json={"ph": None, "potential": 0.0})
+    assert answer.status_code == 422
+    assert [e["msg"] for e in answer.json()["detail"]] == [
+        "ph is required (a number or a range), unless an electrolyte recipe gives it"]
+    answer = client.post("/api/v1/screen", json={"ph": 7, "potential": None})
+    assert answer.status_code == 422 and answer.json()["detail"][0]["loc"] == ["body", "potential"]
 
 
 def test_the_openapi_schema_lists_the_catalogs_ids_and_each_is_accepted(client):

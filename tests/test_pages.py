@@ -125,6 +125,18 @@ def test_view_query_round_trips_an_engine_scenario():
             "rank_by": ["price", "unacceptable"], "weights": {}}
     scenario, errors = ViewQuery.from_scenario(echo).scenario_in()
     assert not errors
+    assert scenario.model_dump() == {**echo, "weights": None, "electrolyte": None, "ion_activities": None, "chloride": None}
+
+
+def test_view_query_round_trips_a_recipe_ions_and_chloride():
+    echo = {"ph": 8.1, "potential": [0.0, 0.8], "scale": "SHE", "activity": 1e-6, "temperature": 25.0,
+            "role": "anode", "accept": ["immunity", "passivation"], "materials": None, "family": None,
+            "rank_by": ["unacceptable"], "weights": {}, "electrolyte": "seawater", "ion_activities": {"Cu^2+": 0.1},
+            "chloride": 0.39}
+    view = ViewQuery.from_scenario(echo)
+    assert ("ion_activities", "Cu^2+=0.1") in view.params(scenario_only=True)
+    scenario, errors = view.scenario_in()
+    assert not errors
     assert scenario.model_dump() == {**echo, "weights": None}
 
 

@@ -5,15 +5,18 @@ from fastapi.responses import Response
 
 from electrosieve.engine.catalog import Catalog
 from electrosieve.engine.diagram import diagram, stable_at
-from electrosieve.engine.inputs import ACTIVITY_RANGE, DEFAULT_ACTIVITY, TEMPERATURE_RANGE_C
+from electrosieve.engine.electrolyte import electrolyte as make_electrolyte
+from electrosieve.engine.inputs import ACTIVITY_RANGE, DEFAULT_ACTIVITY, LIGAND_ACTIVITY_RANGE, TEMPERATURE_RANGE_C
 from electrosieve.engine.errors import ElectrosieveError
+from electrosieve.engine.solution import Solution, make_solution
 
 from .. import payloads, urls
-from ..models import (DiagramOut, MaterialOut, PLOT, POTENTIAL_LIMIT, PointOut, ScaleOut, ScenarioIn, ScreenResult,
+from ..models import (DiagramOut, ElectrolyteOut, MaterialOut, PLOT, POTENTIAL_LIMIT, PointOut, ScaleOut, ScenarioIn, ScreenResult,
                       ShortlistCreate, ShortlistCreated, ShortlistPublic, SourcesOut)
 from ..errors import Unprocessable, engine_error
 from ..pages import screen_result
 from ..shortlists import SAVE_REFUSALS, create_shortlist, find_shortlist, shortlist_public
+from ..viewstate import parse_ion_activities
 from .common import BODY_RESPONSES, ERROR_RESPONSES, get_catalog, get_storage
 
 router = APIRouter(prefix=urls.API, tags=["api"])
@@ -23,11 +26,26 @@ Activity = Query(DEFAULT_ACTIVITY, ge=ACTIVITY_RANGE[0], le=ACTIVITY_RANGE[1], a
                  description="activity of every dissolved species")
 Temperature = Query(25.0, ge=TEMPERATURE_RANGE_C[0], le=TEMPERATURE_RANGE_C[1], allow_inf_nan=False,
                     description="temperature [°C]")
+Electrolyte = Query(None, min_length=1, max_length=200,
+                    description="electrolyte recipe, e.g. `0.6 M NaCl`, `seawater` (sets its ions' and chloride's activities)")
+IonActivities = Query(None, min_length=1, max_length=400,
+                      description="activities of named dissolved species, `NAME=A,…`, e.g. `Cu^2+=0.1` (URL-encoded)")
+ChlorideActivity = Query(None, ge=LIGAND_ACTIVITY_RANGE[0], le=LIGAND_ACTIVITY_RANGE[1], allow_inf_nan=False,
+                         description="free chloride activity (adds chloride complexes and salts)")
 
 
-def _diagram(element: str, activity: float, temperature: float, catalog: Catalog):
+def _solution(catalog: Catalog, temperature: float, electrolyte: str | None, ion_activities: str | None,
+              chloride: float | None, ph: float | None = None) -> Solution:
     try:
-        return diagram(element, activity, temperature, catalog=catalog)
+        return make_solution(catalog=catalog, temperature_c=temperature, ph=ph, electrolyte=electrolyte,
+                             ion_activities=parse_ion_activities(ion_activities), chloride=chloride)
+    except ElectrosieveError as error:
+        raise Unprocessable([engine_error(error, "query")]) from None
+
+
+def _diagram(element: str, activity: float, temperature: float, catalog: Catalog, solution: Solution = Solution()):
+    try:
+        return diagram(element, activity, temperature, catalog=catalog, **solution.diagram_arguments())
     except ElectrosieveError as error:
         where = "path" if error.field == "element" else "query"
         raise Unprocessable([engine_error(error, where)]) from None
@@ -58,8 +76,10 @@ def sources(element: str = ElementPath, catalog: Catalog = Depends(get_catalog))
 @router.get("/diagram/{element}", response_model=DiagramOut, responses=ERROR_RESPONSES,
             summary="An element's exact E-pH diagram (as `electrosieve diagram --json`)")
 def diagram_json(element: str = ElementPath, activity: float = Activity, temperature: float = Temperature,
-                 catalog: Catalog = Depends(get_catalog)):
-    return payloads.diagram_payload(_diagram(element, activity, temperature, catalog), catalog)
+                 electrolyte: str | None = Electrolyte, ion_activities: str | None = IonActivities,
+                 chloride: float | None = ChlorideActivity, catalog: Catalog = Depends(get_catalog)):
+    solution = _solution(catalog, temperature, electrolyte, ion_activities, chloride)
+    return payloads.diagram_payload(_diagram(element, activity, temperature, catalog, solution), catalog, solution)
 
 
 @router.get("/point/{element}", response_model=PointOut, responses=ERROR_RESPONSES,
@@ -69,13 +89,26 @@ def point_json(element: str = ElementPath,
                potential: float = Query(..., ge=-POTENTIAL_LIMIT, le=POTENTIAL_LIMIT, allow_inf_nan=False,
                                         description="potential [V on `scale`]"),
                scale: str = Query("SHE", min_length=1, max_length=32, description="reference scale of `potential`"),
-               activity: float = Activity, temperature: float = Temperature, catalog: Catalog = Depends(get_catalog)):
-    result = _diagram(element, activity, temperature, catalog)
+               activity: float = Activity, temperature: float = Temperature,
+               electrolyte: str | None = Electrolyte, ion_activities: str | None = IonActivities,
+               chloride: float | None = ChlorideActivity, catalog: Catalog = Depends(get_catalog)):
+    solution = _solution(catalog, temperature, electrolyte, ion_activities, chloride, ph)
+    result = _diagram(element, activity, temperature, catalog, solution)
     try:
         point = stable_at(result, catalog.scales, ph, potential, scale)
     except ElectrosieveError as error:
         raise Unprocessable([engine_error(error, "query")]) from None
-    return payloads.point_payload(point)
+    return payloads.point_payload(point, solution)
+
+
+@router.get("/electrolyte", response_model=ElectrolyteOut, responses=ERROR_RESPONSES,
+            summary="pH, ionic strength and free-ion activities of a recipe (as `electrosieve electrolyte --json`)")
+def electrolyte_json(recipe: str = Query(..., min_length=1, max_length=200, description="e.g. `0.6 M NaCl`, `seawater`"),
+                     temperature: float = Temperature):
+    try:
+        return payloads.electrolyte_payload(make_electrolyte(recipe, temperature, "recipe"))
+    except ElectrosieveError as error:
+        raise Unprocessable([engine_error(error, "query")]) from None
 
 
 @router.post("/screen", response_model=ScreenResult, responses=BODY_RESPONSES,

@@ -16,7 +16,7 @@
 
   /* the pieces GET /screen/ranking renders, each with the id the page gives it */
   var PIECES = ["errors", "scenario-line", "rule-text", "conditions-text", "temperature-notes", "gas-notes",
-                "row-count", "ranking-body", "notes"];
+                "row-count", "ranking-body", "notes", "electrolyte-readout", "warnings"];
 
   /* ---- the view state: form -> query string ---- */
   function viewParams() {
