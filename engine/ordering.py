@@ -52,6 +52,8 @@ def dissolved_words(log10_molal: float | None, element: str = "") -> str:
 
     >>> dissolved_words(108.3)
     'dissolves freely (> 1 M)'
+    >>> dissolved_words(-0.04)
+    'up to 0.91 M dissolved'
     >>> dissolved_words(-4.25)
     'up to 10^-4.2 M dissolved'
     >>> dissolved_words(None, "Ta")
@@ -62,4 +64,6 @@ def dissolved_words(log10_molal: float | None, element: str = "") -> str:
         return unknown_reason("dissolved metal", f"no dissolved species{whose} in the data")
     if log10_molal >= DISSOLVED_FREELY_LOG10:
         return "dissolves freely (> 1 M)"
+    if log10_molal >= -2.0:
+        return f"up to {10 ** log10_molal:.2g} M dissolved"
     return f"up to 10^{log10_molal:.1f} M dissolved"

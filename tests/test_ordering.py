@@ -39,7 +39,7 @@ def test_levels_at_or_above_one_molar_read_dissolves_freely(log10):
 
 def test_levels_below_one_molar_keep_their_figure():
     assert dissolved_words(-6.0) == "up to 10^-6.0 M dissolved"
-    assert dissolved_words(-0.04) == "up to 10^-0.0 M dissolved"
+    assert dissolved_words(-0.04) == "up to 0.91 M dissolved"
 
 
 def test_no_dissolved_species_is_unknown_not_zero():
