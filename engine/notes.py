@@ -16,7 +16,7 @@ from pydantic import BaseModel, ConfigDict, model_validator
 
 from .catalog import builtin_data_dir
 from .conduction import COMMON_PRACTICE
-from .datafiles import read_toml, validate_rows
+from .datafiles import Number, read_toml, validate_rows
 from .errors import CatalogError
 
 __all__ = ["KINDS", "Note", "NoteRule", "Situation", "load_notes", "note_rules", "notes_for", "waived_species"]
@@ -40,6 +40,7 @@ class NoteRule(BaseModel):
     roles: tuple[str, ...] = ()
     meets: tuple[str, ...] = ()
     regions: tuple[str, ...] = ()
+    below_v_rhe: Number | None = None
     hydrogen_evolves: bool | None = None
     oxygen_evolves: bool | None = None
     anions: tuple[str, ...] = ()
@@ -78,7 +79,8 @@ class Situation:
 
     ``met_species`` and ``met_regions``: the species (and their regions) the window meets on the
     element's diagram; ``hydrogen_evolves`` / ``oxygen_evolves``: the window reaches past the H2 or O2
-    line; ``anions``: ions the electrolyte is known to hold (e.g. ``"Cl^-"``).
+    line; ``highest_v_rhe``: the window's highest potential vs RHE [V]; ``anions``: ions the electrolyte
+    is known to hold (e.g. ``"Cl^-"``).
     """
 
     element: str
@@ -88,6 +90,7 @@ class Situation:
     met_regions: frozenset[str]
     hydrogen_evolves: bool
     oxygen_evolves: bool
+    highest_v_rhe: float = 0.0
     anions: frozenset[str] = frozenset()
 
 
@@ -119,6 +122,7 @@ def _applies(rule: NoteRule, situation: Situation) -> bool:
         not rule.roles or situation.role in rule.roles,
         not rule.meets or bool(situation.met_species & set(rule.meets)),
         not rule.regions or bool(situation.met_regions & set(rule.regions)),
+        rule.below_v_rhe is None or situation.highest_v_rhe < rule.below_v_rhe,
         rule.hydrogen_evolves is None or rule.hydrogen_evolves == situation.hydrogen_evolves,
         rule.oxygen_evolves is None or rule.oxygen_evolves == situation.oxygen_evolves,
         not rule.anions or bool(situation.anions & set(rule.anions)),

@@ -8,14 +8,14 @@ from electrosieve.engine.errors import CatalogError
 from electrosieve.engine.notes import KINDS, Situation, load_notes, note_rules, notes_for, waived_species
 
 
-def situation(element="C", family="carbon", role="cathode", met=(), regions=(), h2=False, o2=False, anions=()):
-    return Situation(element, family, role, frozenset(met), frozenset(regions), h2, o2, frozenset(anions))
+def situation(element="C", family="carbon", role="cathode", met=(), regions=(), h2=False, o2=False, anions=(), top=0.0):
+    return Situation(element, family, role, frozenset(met), frozenset(regions), h2, o2, top, frozenset(anions))
 
 
 def test_every_rule_names_a_known_source_or_common_practice():
     sources = default_catalog().sources
     rules = load_notes(builtin_data_dir() / "notes.toml", sources)
-    assert len(rules) == 8  # checksum: a deliberate edit of data/notes.toml updates it
+    assert len(rules) == 9  # checksum: a deliberate edit of data/notes.toml updates it
     for rule in rules:
         assert rule.kind in KINDS
         assert rule.common_practice or rule.source in sources
@@ -35,9 +35,15 @@ def test_carbon_methane_is_kinetically_negligible_and_waived():
     assert notes[0].source == "kinoshita1988"
 
 
-def test_carbon_oxidation_is_not_waived():
-    notes = notes_for(situation(met={"CO2"}, regions={"corrosion"}, o2=True, role="oer-anode"))
+def test_carbon_oxidation_is_not_waived_where_it_is_fast():
+    # Kinoshita (1988): carbon corrodes while oxygen is evolved on it.
+    notes = notes_for(situation(met={"CO2"}, regions={"corrosion"}, o2=True, role="oer-anode", top=1.7))
     assert [n.kind for n in notes] == ["caution"] and not waived_species(notes)
+
+
+def test_slow_carbon_oxidation_is_waived_below_its_threshold():
+    notes = notes_for(situation(met={"C", "CO2"}, regions={"immunity", "corrosion"}, role="working-electrode", top=0.8))
+    assert waived_species(notes) == {"CO2", "HCO3^-", "CO3^2-"}
 
 
 def test_valve_metal_film_note_needs_the_film():
