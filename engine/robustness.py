@@ -13,7 +13,8 @@ severe region wins). Species that no draw can bring to the lower envelope are se
 verdict that no draw can change (each side surely met or surely missed) needs no draws at all.
 """
 
-from dataclasses import dataclass, replace
+import zlib
+from dataclasses import dataclass
 from functools import lru_cache
 from pathlib import Path
 
@@ -24,11 +25,12 @@ from .catalog import builtin_data_dir
 from .constants import KJ_PER_EV
 from .datafiles import Number, read_toml
 from .domains import SEVERITY, TIE
-from .geometry import stack_areas
+from .geometry import EPS, SLIVER, stack_areas
 from .errors import CatalogError, InputError
 from .planes import Planes
 
-__all__ = ["VERDICTS", "Robustness", "RobustnessSettings", "robustness", "robustness_settings", "species_present"]
+__all__ = ["VERDICTS", "Question", "Robustness", "RobustnessSettings", "robustness", "robustness_many",
+           "robustness_settings", "species_present"]
 
 VERDICTS = ("acceptable", "partly acceptable", "rejected")
 """A window's verdict: wholly, partly or not at all in acceptable domains (the screen's words)."""
@@ -72,6 +74,20 @@ class Robustness:
     defaulted: tuple[str, ...] = ()
 
 
+@dataclass(frozen=True, eq=False)
+class Question:
+    """One verdict to test: an element's planes, the species that count against the material, and the
+    verdict to test (one of :data:`VERDICTS`; None for the one the tabulated data give)."""
+
+    planes: Planes
+    unacceptable: frozenset[str]
+    verdict: str | None = None
+
+
+INERT = 1e6
+"""Φ offset [eV] of the padding that evens out element systems of different sizes: never the most stable."""
+
+
 def _window_polygon(corners) -> np.ndarray:
     """The window's corners counter-clockwise (pH, E)."""
     corners = np.asarray(corners, dtype=float).reshape(-1, 2)
@@ -80,62 +96,169 @@ def _window_polygon(corners) -> np.ndarray:
     return corners
 
 
-def _vertices(offsets: np.ndarray, ph_slope: np.ndarray, e_slope: np.ndarray, corners: np.ndarray,
-              rows: np.ndarray, rivals: np.ndarray):
-    """Where each species of ``rows`` lies at or below every species of ``rivals``, per draw.
+def _gather(values: np.ndarray, index: np.ndarray) -> np.ndarray:
+    """values[b, index[b, k]] for every row b (index −1, padding, reads column 0)."""
+    return np.take_along_axis(values, np.maximum(index, 0), axis=1)
 
-    That set is the window cut by the half-planes A + B·pH + C·E ≤ 0 (A = Δoffset, B = Δph_slope,
-    C = Δe_slope): a convex polygon whose vertices are window corners, crossings of a line A + B·pH + C·E = 0
-    with a window edge, or crossings of two such lines. Returns (points (D, R, K, 2), feasible (D, R, K),
-    (A (D, R, G), B (R, G), C (R, G))).
+
+def _clip_rows(points: np.ndarray, a: np.ndarray, b: np.ndarray, c: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+    """Each convex polygon of a stack (rows, width, 2) clipped by its own half-plane a + b·x + c·y ≤ 0.
+
+    Sutherland & Hodgman (1974) as ``engine.geometry.clip_stack`` does it, with one half-plane per row.
+    Returns the clipped stack and which rows kept any point.
     """
-    draws, count = len(offsets), len(rows)
-    same = rows[:, None] == rivals[None, :]
-    a = np.where(same, -1.0, offsets[:, rows, None] - offsets[:, None, rivals])  # a species never bars itself
-    b = np.where(same, 0.0, ph_slope[rows, None] - ph_slope[None, rivals])
-    c = np.where(same, 0.0, e_slope[rows, None] - e_slope[None, rivals])
-    starts = corners if len(corners) > 2 else corners[:1]
-    steps = np.roll(corners, -1, axis=0) - corners if len(corners) > 2 else corners[1:] - corners[:1]
-    along = b[..., None] * steps[:, 0] + c[..., None] * steps[:, 1]
-    at_start = a[..., None] + b[..., None] * starts[:, 0] + c[..., None] * starts[:, 1]
-    with np.errstate(divide="ignore", invalid="ignore"):
-        t = -at_start / along
-    crossing_ok = (np.abs(along) > 1e-12) & (t >= -1e-12) & (t <= 1 + 1e-12)
-    t = np.clip(np.where(crossing_ok, t, 0.0), 0.0, 1.0)
-    crossings = starts + t[..., None] * steps
-    rim = np.empty((draws, count, len(corners), 2))
-    rim[:] = corners
-    points = [rim, crossings.reshape(draws, count, -1, 2)]
-    valid = [np.ones((draws, count, len(corners)), dtype=bool), crossing_ok.reshape(draws, count, -1)]
-    if len(corners) > 2 and len(rivals) > 1:
-        first, second = np.triu_indices(len(rivals), 1)
-        det = b[:, first] * c[:, second] - b[:, second] * c[:, first]
-        solvable = np.abs(det) > 1e-12
-        safe = np.where(solvable, det, 1.0)
-        x = (-a[..., first] * c[:, second] + a[..., second] * c[:, first]) / safe
-        y = (-b[:, first] * a[..., second] + b[:, second] * a[..., first]) / safe
-        meet = np.stack([x, y], axis=-1)
-        rel = meet[..., None, :] - corners
-        cross = steps[:, 0] * rel[..., 1] - steps[:, 1] * rel[..., 0]
-        points.append(meet)
-        valid.append(solvable & (cross >= -1e-12).all(axis=-1))
-    points, valid = np.concatenate(points, axis=2), np.concatenate(valid, axis=2)
-    slack = a[:, :, None, :] + b[:, None, :] * points[..., :1] + c[:, None, :] * points[..., 1:]
-    return points, valid & (slack <= TIE).all(axis=-1), (a, b, c)
+    rows, width = points.shape[:2]
+    values = a[:, None] + b[:, None] * points[..., 0] + c[:, None] * points[..., 1]
+    scale = np.maximum(1.0, np.maximum(np.abs(a), np.maximum(np.abs(b), np.abs(c))))
+    inside = values <= EPS * scale[:, None]
+    following = np.roll(points, -1, axis=1)
+    following_values = np.roll(values, -1, axis=1)
+    crossing = inside != np.roll(inside, -1, axis=1)
+    t = values / np.where(crossing, values - following_values, 1.0)
+    crossings = points + t[..., None] * (following - points)
+    candidates = np.stack((points, crossings), axis=2).reshape(rows, 2 * width, 2)
+    kept = np.stack((inside, crossing), axis=2).reshape(rows, 2 * width)
+    counts = kept.sum(axis=1)
+    new_width = max(int(counts.max(initial=0)), 1)
+    order = np.argsort(~kept, axis=1, kind="stable")[:, :new_width]
+    slots = np.minimum(np.arange(new_width)[None, :], np.maximum(counts - 1, 0)[:, None])
+    order = np.take_along_axis(order, slots, axis=1)
+    return np.take_along_axis(candidates, order[..., None], axis=1), counts > 0
 
 
-def _meets(offsets: np.ndarray, ph_slope: np.ndarray, e_slope: np.ndarray, corners: np.ndarray,
-           rows: np.ndarray, rivals: np.ndarray) -> np.ndarray:
-    """(D, R): does species ``rows[r]`` lie strictly below every rival over a positive share of the window?
+def _extent(polygons: np.ndarray, corners: np.ndarray) -> np.ndarray:
+    """Each polygon's share of the window: area over the window's area, or length over the segment's."""
+    if len(corners) > 2:
+        return stack_areas(polygons) / float(stack_areas(corners[None])[0])
+    span = np.linalg.norm(polygons - polygons[:, :1, :], axis=-1).max(axis=1)
+    return span / float(np.linalg.norm(corners[1] - corners[0]))
 
-    The mean of a convex polygon's vertices is interior when the polygon has positive area (or length),
-    and lies on a bounding line when it is degenerate: one strict test at that mean decides.
+
+def _cells(off, ph, e, corners, rows, rivals) -> tuple[np.ndarray, np.ndarray]:
+    """Where species ``rows[b, r]`` lies at or below every species ``rivals[b, g]`` (−1 pads either):
+    the window clipped, row by row, by each rival's half-plane. Returns (polygons of the rows that kept any
+    point, their flat indices into (batch, R))."""
+    skip = (rivals[:, None, :] < 0) | (rows[:, :, None] == rivals[:, None, :])  # padding, or a species itself
+    a = np.where(skip, -1.0, _gather(off, rows)[:, :, None] - _gather(off, rivals)[:, None, :]).reshape(-1, rivals.shape[1])
+    b = np.where(skip, 0.0, _gather(ph, rows)[:, :, None] - _gather(ph, rivals)[:, None, :]).reshape(a.shape)
+    c = np.where(skip, 0.0, _gather(e, rows)[:, :, None] - _gather(e, rivals)[:, None, :]).reshape(a.shape)
+    alive = np.flatnonzero((rows >= 0).ravel())
+    polygons = np.empty((len(alive), len(corners), 2))
+    polygons[:] = corners
+    for rival in range(a.shape[1]):
+        polygons, kept = _clip_rows(polygons, a[alive, rival], b[alive, rival], c[alive, rival])
+        polygons, alive = polygons[kept], alive[kept]
+    return polygons, alive
+
+
+def _meets(off, ph, e, corners, rows, rivals) -> np.ndarray:
+    """(batch, R): does species ``rows[b, r]`` lie below every rival over a positive share of the window?
+
+    What is left of the window after clipping (a convex polygon) must cover more than
+    :data:`engine.geometry.SLIVER` of it (an area, or a length for a segment window): a touching point or
+    line does not count.
     """
-    points, feasible, (a, b, c) = _vertices(offsets, ph_slope, e_slope, corners, rows, rivals)
-    count = feasible.sum(axis=2)
-    mean = (points * feasible[..., None]).sum(axis=2) / np.maximum(count, 1)[..., None]
-    slack = a + b * mean[..., :1] + c * mean[..., 1:]
-    return (count > 0) & (slack < -TIE).all(axis=-1)
+    polygons, alive = _cells(off, ph, e, corners, rows, rivals)
+    met = np.zeros(rows.size, dtype=bool)
+    met[alive] = _extent(polygons, corners) > SLIVER
+    return met.reshape(rows.shape)
+
+
+def _indices(mask: np.ndarray) -> np.ndarray:
+    """Per row, the column indices where ``mask`` holds, padded with −1 to a common width (at least 1)."""
+    width = max(int(mask.sum(axis=1).max(initial=0)), 1)
+    order = np.argsort(~mask, axis=1, kind="stable")[:, :width]
+    return np.where(np.take_along_axis(mask, order, axis=1), order, -1)
+
+
+def _point_verdicts(off, ph, e, corners, bad, keep, severity) -> np.ndarray:
+    """Verdict index per row for a point window: the engine's tie rule (the more severe region wins)."""
+    values = np.where(keep, off + ph * corners[0, 0] + e * corners[0, 1], np.inf)
+    tied = values <= values.min(axis=1, keepdims=True) + TIE
+    n = values.shape[1]
+    score = np.where(tied, severity * (n + 1) - np.arange(n), -np.inf)
+    return np.where(np.take_along_axis(bad, np.argmax(score, axis=1)[:, None], axis=1)[:, 0], 2, 0)
+
+
+def _side_verdicts(off, ph, e, corners, bad, keep, sure_bad, sure_good) -> np.ndarray:
+    """Verdict index per row: each side meets the window when one of its species lies below every species
+    of the other side over a positive share (the two envelopes cross), computed only where not already sure."""
+    bad_rows, good_rows = _indices(bad & keep), _indices(~bad & keep)
+    any_bad, any_good = (bad & keep).any(axis=1), (~bad & keep).any(axis=1)
+    seen_bad, seen_good = _seen(off, ph, e, corners, bad, keep)
+    has_bad = any_bad & (sure_bad | ~any_good | seen_bad)
+    has_good = any_good & (sure_good | ~any_bad | seen_good)
+    sure_bad, sure_good = sure_bad | seen_bad, sure_good | seen_good
+    ask = any_bad & any_good & ~sure_bad
+    if ask.any():
+        has_bad[ask] = _meets(off[ask], ph[ask], e[ask], corners, bad_rows[ask], good_rows[ask]).any(axis=1)
+    ask = any_bad & any_good & ~sure_good
+    if ask.any():
+        has_good[ask] = _meets(off[ask], ph[ask], e[ask], corners, good_rows[ask], bad_rows[ask]).any(axis=1)
+    return np.where(~has_bad, 0, np.where(~has_good, 2, 1))
+
+
+def _probes(corners: np.ndarray) -> np.ndarray:
+    """Points of the window that show which side holds where: corners, edge midpoints, the centre and
+    the points halfway from the centre to those."""
+    rim = np.concatenate([corners, (corners + np.roll(corners, -1, axis=0)) / 2])
+    centre = corners.mean(axis=0)
+    return np.concatenate([rim, (rim + centre) / 2, centre[None]])
+
+
+def _seen(off, ph, e, corners, bad, keep) -> tuple[np.ndarray, np.ndarray]:
+    """(bad side seen, good side seen) per row: at some probe one side's species lies strictly lowest, so
+    that side holds a positive share of the window there. Seeing decides presence; only absence needs
+    the exact test."""
+    probes = _probes(corners)
+    values = np.where(keep[:, None, :], off[:, None, :] + ph[:, None, :] * probes[:, :1]
+                      + e[:, None, :] * probes[:, 1:], np.inf)
+    bad_low = np.where(bad[:, None, :], values, np.inf).min(axis=2)
+    good_low = np.where(bad[:, None, :], np.inf, values).min(axis=2)
+    return (bad_low < good_low - TIE).any(axis=1), (good_low < bad_low - TIE).any(axis=1)
+
+
+def _surely_met(off, ph, e, corners, reach, bad, keep) -> tuple[np.ndarray, np.ndarray]:
+    """(bad side surely met, good side surely met) per row, in every draw.
+
+    A side is surely met when at some probe — a corner, an edge's midpoint, the centre, or halfway from
+    the centre to those — one of its species lies below every species of the other side by more than any
+    draw can close (strictly, so the side holds a positive share of the window around that probe).
+    """
+    probes = _probes(corners)
+    values = off[:, None, :] + ph[:, None, :] * probes[:, :1] + e[:, None, :] * probes[:, 1:]
+    highest, lowest = values + reach[:, None, :], values - reach[:, None, :]
+    is_bad, is_good = (bad & keep)[:, None, :], (~bad & keep)[:, None, :]
+    bad_top = np.where(is_bad, highest, np.inf).min(axis=2)
+    good_top = np.where(is_good, highest, np.inf).min(axis=2)
+    bad_floor = np.where(is_bad, lowest, np.inf).min(axis=2)
+    good_floor = np.where(is_good, lowest, np.inf).min(axis=2)
+    return (bad_top < good_floor).any(axis=1), (good_top < bad_floor).any(axis=1)
+
+
+def _contenders(off, ph, e, corners, reach, keep) -> np.ndarray:
+    """Species that may be the most stable somewhere in the window in some draw (a (batch, species) mask).
+
+    Species i is first set aside when one species lies below it at every corner (so everywhere: the
+    difference is linear) by more than both can move (``reach`` [eV per metal atom]: the clipped deviates'
+    bound). Then exactly: Φ_i − min Φ over the window is least at a vertex of the domains clipped by the
+    window (it is linear on each); i cannot reach the lower envelope in any draw when that least gap
+    exceeds what Φ_i can rise plus what the envelope can fall.
+    """
+    values = off[:, None, :] + ph[:, None, :] * corners[:, :1] + e[:, None, :] * corners[:, 1:]
+    gap = (values[:, :, :, None] - values[:, :, None, :]).min(axis=1)
+    keep = keep & ~((gap > reach[:, :, None] + reach[:, None, :]) & keep[:, None, :]).any(axis=2)
+    if len(corners) == 1:
+        return keep
+    everyone = _indices(keep)
+    polygons, alive = _cells(off, ph, e, corners, everyone, everyone)
+    batch = alive // everyone.shape[1]
+    own = everyone.ravel()[alive]
+    at = off[batch, None, :] + ph[batch, None, :] * polygons[..., :1] + e[batch, None, :] * polygons[..., 1:]
+    gap = (at - np.take_along_axis(at, own[:, None, None], axis=2)).min(axis=1)
+    least = np.full(off.shape, np.inf)
+    np.minimum.at(least, batch, gap)
+    return keep & (least <= reach + reach.max(axis=1, keepdims=True) + 1e-12)
 
 
 def species_present(planes: Planes, offsets: np.ndarray, corners) -> np.ndarray:
@@ -148,47 +271,87 @@ def species_present(planes: Planes, offsets: np.ndarray, corners) -> np.ndarray:
     """
     offsets = np.atleast_2d(offsets)
     corners = _window_polygon(corners)
-    ph_slope, e_slope = planes.ph_slope, planes.e_slope
-    n = len(ph_slope)
+    n, draws = len(planes.species), len(offsets)
+    ph, e = np.broadcast_to(planes.ph_slope, offsets.shape), np.broadcast_to(planes.e_slope, offsets.shape)
     if len(corners) == 1:
-        ph, e = corners[0]
-        values = offsets + ph_slope * ph + e_slope * e
+        values = offsets + planes.ph_slope * corners[0, 0] + planes.e_slope * corners[0, 1]
         tied = values <= values.min(axis=1, keepdims=True) + TIE
         severity = np.array([SEVERITY[s.region] for s in planes.species], dtype=float)
         score = np.where(tied, severity * (n + 1) - np.arange(n), -np.inf)
         return np.eye(n, dtype=bool)[np.argmax(score, axis=1)]
-    everyone = np.arange(n)
-    return _meets(offsets, ph_slope, e_slope, corners, everyone, everyone)
+    everyone = np.broadcast_to(np.arange(n), (draws, n))
+    return _meets(offsets, ph, e, corners, everyone, everyone)
 
 
-def _sides_present(planes: Planes, offsets: np.ndarray, corners: np.ndarray, bad: np.ndarray,
-                   known: tuple[bool, bool] = (False, False)) -> np.ndarray:
-    """Index into :data:`VERDICTS` per draw. The unacceptable side meets the window exactly when one of its
-    species lies below every acceptable species over a positive share (the bad envelope dips below the
-    good one), and alike for the acceptable side: each side is weighed against the other side only.
-    ``known`` = (bad side surely met, good side surely met) spares computing a side already decided."""
+def _padded(questions: list[Question], settings: RobustnessSettings):
+    """The questions' planes as (question, species) arrays, padded with inert species."""
+    width = max(len(q.planes.species) for q in questions)
+    shape = (len(questions), width)
+    off, ph, e = np.full(shape, INERT), np.zeros(shape), np.zeros(shape)
+    spread, severity = np.zeros(shape), np.zeros(shape)
+    bad, real = np.zeros(shape, dtype=bool), np.zeros(shape, dtype=bool)
+    for row, question in enumerate(questions):
+        planes, n = question.planes, len(question.planes.species)
+        off[row, :n], ph[row, :n], e[row, :n] = planes.offset, planes.ph_slope, planes.e_slope
+        sigma = [0.0 if s.is_element else (settings.default_uncertainty_kj_mol if s.uncertainty is None
+                                           else s.uncertainty) for s in planes.species]
+        spread[row, :n] = np.asarray(sigma) / (KJ_PER_EV * planes.metal_atoms)
+        severity[row, :n] = [SEVERITY[region] for region in planes.regions]
+        bad[row, :n] = [name in question.unacceptable for name in planes.index_of]
+        real[row, :n] = True
+    return off, ph, e, spread, severity, bad, real
+
+
+def robustness_many(questions: list[Question], corners, *, draws: int | None = None, seed: int | None = None,
+                    settings: RobustnessSettings | None = None) -> list[Robustness]:
+    """:func:`robustness` of many questions over one window, computed together (one vectorised pass).
+
+    Each question's draws come from its own generator, seeded by the settings' seed and its species'
+    names, so an answer does not depend on which other questions share the pass.
+    """
+    settings = settings or robustness_settings()
+    draws = settings.draws if draws is None else int(draws)
+    if draws < 1:
+        raise InputError(f"draws must be a positive whole number (given {draws})", field="draws")
+    for question in questions:
+        if question.verdict is not None and question.verdict not in VERDICTS:
+            raise InputError(f"verdict must be one of {', '.join(VERDICTS)} (given {question.verdict!r})",
+                             field="verdict")
+    if not questions:
+        return []
+    corners = _window_polygon(corners)
+    off, ph, e, spread, severity, bad, real = _padded(questions, settings)
+    reach = CLIP_SIGMA * spread
+    keep = _contenders(off, ph, e, corners, reach, real)
     if len(corners) == 1:
-        return _verdicts(species_present(planes, offsets, corners), bad)
-    good_rows, bad_rows = np.flatnonzero(~bad), np.flatnonzero(bad)
-    args = (offsets, planes.ph_slope, planes.e_slope, corners)
-    everywhere, nowhere = np.ones(len(offsets), dtype=bool), np.zeros(len(offsets), dtype=bool)
-
-    def side(rows, rivals, surely):
-        if not len(rows):
-            return nowhere
-        if surely or not len(rivals):
-            return everywhere
-        return _meets(*args, rows, rivals).any(axis=1)
-
-    has_bad, has_good = side(bad_rows, good_rows, known[0]), side(good_rows, bad_rows, known[1])
-    return np.where(~has_bad, 0, np.where(~has_good, 2, 1))
-
-
-def _verdicts(present: np.ndarray, bad: np.ndarray) -> np.ndarray:
-    """Index into :data:`VERDICTS` for each draw, from the species present and which of them are unacceptable."""
-    has_bad = (present & bad).any(axis=1)
-    has_good = (present & ~bad).any(axis=1)
-    return np.where(~has_bad, 0, np.where(~has_good, 2, 1))
+        nominal = _point_verdicts(off, ph, e, corners, bad, keep, severity)
+    else:
+        nothing = np.zeros(len(questions), dtype=bool)
+        nominal = _side_verdicts(off, ph, e, corners, bad, keep, nothing, nothing)
+    nominal = np.array([VERDICTS.index(q.verdict) if q.verdict else v for q, v in zip(questions, nominal)])
+    sure_bad, sure_good = _surely_met(off, ph, e, corners, reach, bad, keep)
+    any_bad, any_good = (bad & keep).any(axis=1), (~bad & keep).any(axis=1)
+    fixed = (sure_bad | ~any_bad) & (sure_good | ~any_good)
+    outcome_share = np.where(fixed, (np.where(~any_bad, 0, np.where(~any_good, 2, 1)) == nominal).astype(float), 0.0)
+    ask = np.flatnonzero(~fixed)
+    if len(ask):
+        base = settings.seed if seed is None else seed
+        deviates = np.stack([
+            np.clip(np.random.default_rng([base, zlib.crc32("|".join(questions[k].planes.index_of).encode())])
+                    .standard_normal((draws, off.shape[1])), -CLIP_SIGMA, CLIP_SIGMA) for k in ask])
+        drawn = (off[ask, None, :] + deviates * spread[ask, None, :]).reshape(-1, off.shape[1])
+        repeat = lambda values: np.repeat(values[ask], draws, axis=0)  # noqa: E731
+        if len(corners) == 1:
+            verdicts = _point_verdicts(drawn, repeat(ph), repeat(e), corners, repeat(bad), repeat(keep),
+                                       repeat(severity))
+        else:
+            verdicts = _side_verdicts(drawn, repeat(ph), repeat(e), corners, repeat(bad), repeat(keep),
+                                      repeat(sure_bad), repeat(sure_good))
+        outcome_share[ask] = (verdicts.reshape(len(ask), draws) == nominal[ask, None]).mean(axis=1)
+    return [Robustness(verdict_probability=float(share), draws=draws, verdict=VERDICTS[code],
+                       defaulted=tuple(name for s, name in zip(q.planes.species, q.planes.index_of)
+                                       if s.uncertainty is None and not s.is_element))
+            for q, share, code in zip(questions, outcome_share, nominal)]
 
 
 def robustness(planes: Planes, corners, accept, *, blocking=frozenset(), waived=frozenset(),
@@ -207,99 +370,11 @@ def robustness(planes: Planes, corners, accept, *, blocking=frozenset(), waived=
     >>> robustness(zinc.planes, [(7.0, -1.2)], {"immunity"}).verdict_probability
     1.0
     """
-    settings = settings or robustness_settings()
-    draws = settings.draws if draws is None else int(draws)
-    if draws < 1:
-        raise InputError(f"draws must be a positive whole number (given {draws})", field="draws")
     accept = set(accept)
     unknown = accept - set(SEVERITY)
     if unknown:
         raise InputError(f"accept: unknown region {sorted(unknown)[0]!r}; allowed: {', '.join(SEVERITY)}", field="accept")
-    species = planes.species
-    names = list(planes.index_of)
-    bad = np.array([(s.region not in accept or name in blocking) and name not in waived
-                    for s, name in zip(species, names)])
-    sigma = np.array([0.0 if s.is_element else (settings.default_uncertainty_kj_mol if s.uncertainty is None
-                                                 else s.uncertainty) for s in species])
-    spread = sigma / (KJ_PER_EV * planes.metal_atoms)
-    corners = _window_polygon(corners)
-    reach = CLIP_SIGMA * spread
-    keep = _undominated(planes, corners, reach)
-    if bad[keep].any() and not bad[keep].all() and not all(_surely_met(_subset(planes, keep), corners, reach[keep],
-                                                                        bad[keep])):
-        keep[keep] = _contenders(_subset(planes, keep), corners, reach[keep])
-    contenders = _subset(planes, keep)
-    bad = bad[keep]
-    if verdict is None:
-        nominal = _sides_present(contenders, contenders.offset[None, :], corners, bad)[0]
-    elif verdict in VERDICTS:
-        nominal = VERDICTS.index(verdict)
-    else:
-        raise InputError(f"verdict must be one of {', '.join(VERDICTS)} (given {verdict!r})", field="verdict")
-    defaulted = tuple(name for s, name in zip(species, names) if s.uncertainty is None and not s.is_element)
-    bad_sure, good_sure = _surely_met(contenders, corners, reach[keep], bad)
-    bad_sure, good_sure = bad_sure or not bad.any(), good_sure or bad.all()  # a side with no contender is surely missed
-    if bad_sure and good_sure:  # no draw can change the verdict
-        fixed = 0 if not bad.any() else (2 if bad.all() else 1)
-        return Robustness(verdict_probability=float(fixed == nominal), draws=draws, verdict=VERDICTS[nominal],
-                          defaulted=defaulted)
-    rng = np.random.default_rng(settings.seed if seed is None else seed)
-    deviates = np.clip(rng.standard_normal((draws, len(species))), -CLIP_SIGMA, CLIP_SIGMA)
-    offsets = (planes.offset + deviates * spread)[:, keep]
-    outcome = _sides_present(contenders, offsets, corners, bad, known=(bad_sure and bad.any(), good_sure and not bad.all()))
-    return Robustness(verdict_probability=float(np.mean(outcome == nominal)), draws=draws,
-                      verdict=VERDICTS[nominal], defaulted=defaulted)
-
-
-def _undominated(planes: Planes, corners: np.ndarray, reach: np.ndarray) -> np.ndarray:
-    """A quick first sieve for :func:`_contenders`: species i is set aside when one species lies below it at
-    every corner (so everywhere in the window: the difference is linear) by more than both can move."""
-    values = planes.offset + planes.ph_slope * corners[:, :1] + planes.e_slope * corners[:, 1:]
-    gap = (values[:, :, None] - values[:, None, :]).min(axis=0)
-    return ~(gap > reach[:, None] + reach[None, :]).any(axis=1)
-
-
-def _contenders(planes: Planes, corners: np.ndarray, reach: np.ndarray) -> np.ndarray:
-    """Species that may be the most stable somewhere in the window in some draw (a boolean mask).
-
-    Φ_i − min Φ over the window is least at a vertex of the domains clipped by the window (it is linear on
-    each), found with the tabulated data. Species i cannot reach the lower envelope in any draw when that
-    least gap exceeds what Φ_i can rise plus what the envelope can fall (``reach`` [eV per metal atom]:
-    the clipped deviates' bound).
-    """
-    everyone = np.arange(len(reach))
-    if len(corners) == 1:
-        values = planes.offset + planes.ph_slope * corners[0, 0] + planes.e_slope * corners[0, 1]
-        return values - values.min() <= reach + reach.max() + 1e-12
-    points, feasible, _ = _vertices(planes.offset[None, :], planes.ph_slope, planes.e_slope, corners, everyone, everyone)
-    points, feasible = points[0], feasible[0]
-    values = planes.offset + planes.ph_slope * points[..., :1] + planes.e_slope * points[..., 1:]
-    lowest = np.take_along_axis(values, everyone[:, None, None], axis=2)
-    gaps = np.where(feasible[..., None], values - lowest, np.inf).min(axis=(0, 1))
-    return gaps <= reach + reach.max() + 1e-12
-
-
-def _surely_met(planes: Planes, corners: np.ndarray, reach: np.ndarray, bad: np.ndarray) -> tuple[bool, bool]:
-    """(bad side surely met, good side surely met) in every draw.
-
-    A side is surely met when at some probe — a corner, an edge's midpoint, the centre, or halfway from
-    the centre to those — one of its species lies below every species of the other side by more than any
-    draw can close (strictly, so the side holds a positive share of the window around that probe).
-    """
-    rim = np.concatenate([corners, (corners + np.roll(corners, -1, axis=0)) / 2])
-    centre = corners.mean(axis=0)
-    probes = np.concatenate([rim, (rim + centre) / 2, centre[None]])
-    values = planes.offset + planes.ph_slope * probes[:, :1] + planes.e_slope * probes[:, 1:]
-    highest, lowest = values + reach, values - reach
-    good_top = np.where(bad, np.inf, highest).min(axis=1)
-    bad_top = np.where(bad, highest, np.inf).min(axis=1)
-    good_floor = np.where(bad, np.inf, lowest).min(axis=1)
-    bad_floor = np.where(bad, lowest, np.inf).min(axis=1)
-    return bool((bad_top < good_floor).any()), bool((good_top < bad_floor).any())
-
-
-def _subset(planes: Planes, keep: np.ndarray) -> Planes:
-    """The planes of the species flagged in ``keep`` only."""
-    return replace(planes, species=tuple(s for s, k in zip(planes.species, keep) if k), offset=planes.offset[keep],
-                   ph_slope=planes.ph_slope[keep], e_slope=planes.e_slope[keep],
-                   metal_atoms=planes.metal_atoms[keep], dissolved=planes.dissolved[keep])
+    unacceptable = frozenset(name for name, region in zip(planes.index_of, planes.regions)
+                             if (region not in accept or name in blocking) and name not in waived)
+    return robustness_many([Question(planes, unacceptable, verdict)], corners, draws=draws, seed=seed,
+                           settings=settings)[0]
