@@ -336,9 +336,11 @@ def robustness_many(questions: list[Question], corners, *, draws: int | None = N
     ask = np.flatnonzero(~fixed)
     if len(ask):
         base = settings.seed if seed is None else seed
-        deviates = np.stack([
-            np.clip(np.random.default_rng([base, zlib.crc32("|".join(questions[k].planes.index_of).encode())])
-                    .standard_normal((draws, off.shape[1])), -CLIP_SIGMA, CLIP_SIGMA) for k in ask])
+        deviates = np.zeros((len(ask), draws, off.shape[1]))
+        for row, k in enumerate(ask):
+            names = list(questions[k].planes.index_of)
+            rng = np.random.default_rng([base, zlib.crc32("|".join(names).encode())])
+            deviates[row, :, :len(names)] = np.clip(rng.standard_normal((draws, len(names))), -CLIP_SIGMA, CLIP_SIGMA)
         drawn = (off[ask, None, :] + deviates * spread[ask, None, :]).reshape(-1, off.shape[1])
         repeat = lambda values: np.repeat(values[ask], draws, axis=0)  # noqa: E731
         if len(corners) == 1:

@@ -12,7 +12,7 @@ from electrosieve.engine.catalog import default_catalog
 from electrosieve.engine.conduction import surface_of
 from electrosieve.engine.diagram import diagram
 from electrosieve.engine.domains import Window
-from electrosieve.engine.judgement import Met, judge, rank_key
+from electrosieve.engine.judgement import Conditions, ElementState, Met, judge, judge_all, rank_key
 from electrosieve.engine.metrics import overlays
 from electrosieve.engine.roles import roles
 from electrosieve.engine.window import operating_window
@@ -27,10 +27,9 @@ def ranked(role_name: str, ph: tuple, potential: tuple, scale: str = "RHE", curr
     elements = list(dict.fromkeys(m.element for m in catalog.materials.values()))
     diagrams = {e: diagram(e) for e in elements}
     overlay = dict(zip(elements, overlays(list(diagrams.values()), window)))
-    judged = [judge(m, role, met=overlay[m.element].pieces, planes=diagrams[m.element].planes,
-                    corners=window.vertices, water=diagrams[m.element].water, ph=window.ph,
-                    log10_dissolved=overlay[m.element].dissolved, current_density_ma_cm2=current_density)
-              for m in catalog.materials.values()]
+    states = {e: ElementState.of(diagrams[e].planes, overlay[e].pieces, overlay[e].dissolved) for e in elements}
+    conditions = Conditions(window.vertices, window.ph, diagrams[elements[0]].water, current_density)
+    judged = judge_all(list(catalog.materials.values()), role, states, conditions)
     return sorted(judged, key=lambda j: rank_key(j, role))
 
 
@@ -187,7 +186,20 @@ def test_a_dissolving_material_keeps_its_own_surface():
     catalog = default_catalog()
     zinc = diagram("Zn")
     window = operating_window(catalog.scales, [0, 1], [0.0, 0.2], "SHE", 25.0, Window())
-    j = judge(catalog.materials["Zn"], roles()["anode"], met=[Met("Zn^2+", "corrosion", 1.0)], planes=zinc.planes,
-              corners=window.vertices, water=zinc.water, ph=window.ph, log10_dissolved=108.0)
+    j = judge(catalog.materials["Zn"], roles()["anode"], ElementState(zinc.planes, (Met("Zn^2+", "corrosion", 1.0),), 108.0),
+              Conditions(window.vertices, window.ph, zinc.water))
     assert j.surface == surface_of("Zn") and not j.acceptable
     assert "dissolves freely (> 1 M)" in j.reasons
+
+
+def test_judging_one_by_one_gives_the_same_answers_as_the_single_pass():
+    catalog = default_catalog()
+    role = roles()["oer-anode"]
+    window = operating_window(catalog.scales, [13.5, 14.0], [1.5, 1.7], "RHE", 25.0, Window())
+    for material in ("Ni", "Cu", "Ag", "Sn"):
+        d = diagram(catalog.materials[material].element)
+        (overlay,) = overlays([d], window)
+        alone = judge(catalog.materials[material], role, ElementState.of(d.planes, overlay.pieces, overlay.dissolved),
+                      Conditions(window.vertices, window.ph, d.water))
+        together = next(j for j in ranked(*ALKALINE_OER) if j.material == material)
+        assert alone == together

@@ -119,3 +119,17 @@ def test_segment_windows_are_exact_too():
     across = [(5.0, e - 0.1), (5.0, e + 0.1)]
     present = species_present(planes, planes.offset[None], np.array(across))[0]
     assert present[planes.index_of["Zn"]] and present[planes.index_of["Zn^2+"]]
+
+
+def test_one_pass_over_many_questions_answers_as_each_alone():
+    from electrosieve.engine.robustness import Question, robustness_many
+
+    corners = [(4.0, -0.9), (6.0, -0.9), (6.0, -0.7), (4.0, -0.7)]
+    questions = []
+    for element in ("Zn", "Cd", "Fe", "Ni"):
+        planes = diagram(element).planes
+        questions.append(Question(planes, frozenset(n for n, r in zip(planes.index_of, planes.regions)
+                                                    if r != "immunity")))
+    together = robustness_many(questions, corners)
+    alone = [robustness_many([q], corners)[0] for q in questions]
+    assert together == alone
