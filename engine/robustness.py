@@ -25,8 +25,8 @@ from .catalog import builtin_data_dir
 from .constants import KJ_PER_EV
 from .datafiles import Number, read_toml
 from .domains import SEVERITY, TIE
-from .geometry import EPS, SLIVER, stack_areas
 from .errors import CatalogError, InputError
+from .geometry import EPS, SLIVER, stack_areas
 from .planes import Planes
 
 __all__ = ["VERDICTS", "Question", "Robustness", "RobustnessSettings", "robustness", "robustness_many",
@@ -319,6 +319,11 @@ def robustness_many(questions: list[Question], corners, *, draws: int | None = N
                              field="verdict")
     if not questions:
         return []
+    distinct = {(id(q.planes), q.unacceptable, q.verdict): q for q in questions}
+    if len(distinct) < len(questions):  # materials of one element often ask the same question
+        answers = dict(zip(distinct, robustness_many(list(distinct.values()), corners, draws=draws, seed=seed,
+                                                     settings=settings)))
+        return [answers[(id(q.planes), q.unacceptable, q.verdict)] for q in questions]
     corners = _window_polygon(corners)
     off, ph, e, spread, severity, bad, real = _padded(questions, settings)
     reach = CLIP_SIGMA * spread
@@ -341,14 +346,25 @@ def robustness_many(questions: list[Question], corners, *, draws: int | None = N
             names = list(questions[k].planes.index_of)
             rng = np.random.default_rng([base, zlib.crc32("|".join(names).encode())])
             deviates[row, :, :len(names)] = np.clip(rng.standard_normal((draws, len(names))), -CLIP_SIGMA, CLIP_SIGMA)
-        drawn = (off[ask, None, :] + deviates * spread[ask, None, :]).reshape(-1, off.shape[1])
-        repeat = lambda values: np.repeat(values[ask], draws, axis=0)  # noqa: E731
+        columns = _indices(keep[ask])  # the contenders only, from here on
+        unused = columns < 0
+
+        def narrow(values: np.ndarray, fill) -> np.ndarray:
+            out = _gather(values[ask], columns)
+            out[unused] = fill
+            return out
+
+        off, ph, e, spread = narrow(off, INERT), narrow(ph, 0.0), narrow(e, 0.0), narrow(spread, 0.0)
+        severity, bad, keep = narrow(severity, 0.0), narrow(bad, False), ~unused
+        deviates = np.take_along_axis(deviates, np.maximum(columns, 0)[:, None, :], axis=2)
+        drawn = (off[:, None, :] + deviates * spread[:, None, :]).reshape(-1, off.shape[1])
+        repeat = lambda values: np.repeat(values, draws, axis=0)  # noqa: E731
         if len(corners) == 1:
             verdicts = _point_verdicts(drawn, repeat(ph), repeat(e), corners, repeat(bad), repeat(keep),
                                        repeat(severity))
         else:
             verdicts = _side_verdicts(drawn, repeat(ph), repeat(e), corners, repeat(bad), repeat(keep),
-                                      repeat(sure_bad), repeat(sure_good))
+                                      repeat(sure_bad[ask]), repeat(sure_good[ask]))
         outcome_share[ask] = (verdicts.reshape(len(ask), draws) == nominal[ask, None]).mean(axis=1)
     return [Robustness(verdict_probability=float(share), draws=draws, verdict=VERDICTS[code],
                        defaulted=tuple(name for s, name in zip(q.planes.species, q.planes.index_of)
