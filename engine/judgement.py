@@ -16,7 +16,7 @@ from .materials import Material
 from .notes import Note, Situation, notes_for, waived_species
 from .ordering import dissolved_words, order_key, unknown_reason
 from .planes import Planes
-from .robustness import Question, Robustness, robustness_many
+from .robustness import Question, Robustness, robustness_many, robustness_settings
 from .roles import Role, criterion_value
 from .water import WaterLines
 
@@ -25,9 +25,6 @@ __all__ = ["Conditions", "ElementState", "Judgement", "Met", "judge", "judge_all
 
 SHARE = 1e-9
 """Window shares below this count as none (the screen's tolerance on fractions)."""
-
-ROBUST = 0.9
-"""A verdict that holds in fewer draws than this is called fragile in the reasons (common practice)."""
 
 
 @dataclass(frozen=True)
@@ -182,7 +179,7 @@ def judge(material: Material, role: Role, state: ElementState, conditions: Condi
 
     if robustness is None:
         robustness = robustness_many([question_of(material, role, state, notes)], conditions.corners, draws=draws)[0]
-    if robustness.verdict_probability < ROBUST:
+    if robustness.verdict_probability < robustness_settings().fragile_below:
         reasons.append(f"fragile verdict: it holds in {100 * robustness.verdict_probability:.0f}% of "
                        f"{robustness.draws} draws within the data's uncertainties")
     reasons += [note.text for note in notes if note.kind == "kinetic"]

@@ -35,10 +35,6 @@ DEFAULT_CURRENT_DENSITY = 1.0
 CURRENT_DENSITY_RANGE = (1e-3, 1e4)
 """Current densities a user may ask for [mA cm^-2]: 1 µA cm^-2 to 10 A cm^-2."""
 
-OXYGEN_REVERSIBLE_V_RHE = 1.229
-"""E(O2/H2O) vs RHE at 25 °C [V] (Bard, Parsons & Jordan 1985), used when no water lines are given."""
-
-
 class MediumRow(BaseModel):
     """A pH band within which kinetic data of one medium apply."""
 
@@ -188,17 +184,17 @@ def medium_of(ph: tuple[float, float], table: KineticTable | None = None) -> str
 
 
 def kinetics(material: str, ph: tuple[float, float], current_density_ma_cm2: float = DEFAULT_CURRENT_DENSITY, *,
-             oxygen_reversible_v_rhe: float = OXYGEN_REVERSIBLE_V_RHE, table: KineticTable | None = None) -> Kinetics:
+             oxygen_reversible_v_rhe: float, table: KineticTable | None = None) -> Kinetics:
     """Hydrogen and oxygen onsets vs RHE [V] of ``material`` (an id of ``materials.toml``) over pH ``ph``.
 
     ``oxygen_reversible_v_rhe`` is E(O2/H2O) − E(H+/H2) at the cell's temperature [V]
     (``WaterLines.oxygen_intercept − WaterLines.hydrogen_intercept``); the kinetic data themselves are at 25 °C.
 
-    >>> k = kinetics("Pt", (0.0, 1.0))
-    >>> round(k.hydrogen_onset_v_rhe, 3), k.medium
-    (-0.003, 'acid')
-    >>> kinetics("Os", (0.0, 1.0)).hydrogen_onset_v_rhe is None
-    True
+    >>> from electrosieve.engine.diagram import diagram
+    >>> water = diagram("Pt").water
+    >>> k = kinetics("Pt", (0.0, 1.0), oxygen_reversible_v_rhe=water.oxygen_intercept - water.hydrogen_intercept)
+    >>> round(k.hydrogen_onset_v_rhe, 3), round(k.oxygen_onset_v_rhe, 2), k.medium
+    (-0.003, 1.76, 'acid')
     """
     table = table or kinetic_table()
     j = check_number(current_density_ma_cm2, "current_density", *CURRENT_DENSITY_RANGE, what=" mA cm^-2")

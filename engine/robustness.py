@@ -49,6 +49,7 @@ class RobustnessSettings(BaseModel):
     draws: int = Field(ge=200)
     seed: int
     method_source: str
+    fragile_below: Number = Field(gt=0, le=1)
 
 
 @lru_cache(maxsize=4)

@@ -6,10 +6,21 @@ import pytest
 
 from electrosieve.engine.catalog import builtin_data_dir, default_catalog
 from electrosieve.engine.errors import CatalogError, InputError
-from electrosieve.engine.kinetics import (kinetic_table, kinetics, load_kinetics, medium_of, onset_overpotential,
-                                          tafel_overpotential)
+from electrosieve.engine.diagram import diagram
+from electrosieve.engine.kinetics import kinetic_table, load_kinetics, medium_of, onset_overpotential, tafel_overpotential
+from electrosieve.engine.kinetics import kinetics as onsets
 
+WATER = diagram("Pt").water
+O2_LINE = WATER.oxygen_intercept - WATER.hydrogen_intercept  # 1.229 V at 25 °C (Bard, Parsons & Jordan 1985)
 ACID = (0.0, 1.0)
+
+
+def kinetics(material, ph, current_density=1.0, oxygen_reversible_v_rhe=O2_LINE):
+    return onsets(material, ph, current_density, oxygen_reversible_v_rhe=oxygen_reversible_v_rhe)
+
+
+def test_oxygen_line_is_the_standard_value():
+    assert O2_LINE == pytest.approx(1.229, abs=0.001)
 ALKALINE = (13.5, 14.0)
 
 
@@ -59,8 +70,8 @@ def test_hydrogen_overpotential_order_of_the_classic_cathodes():
 
 def test_alkaline_oxygen_benchmark_is_reproduced_at_its_own_current_density():
     # McCrory et al. (2013), JACS 135, 16977: NiOx 0.42 V, IrOx 0.32 V at 10 mA cm^-2 in 1 M NaOH.
-    assert kinetics("Ni", ALKALINE, 10.0).oxygen_onset_v_rhe == pytest.approx(1.229 + 0.42)
-    assert kinetics("IrO2", ALKALINE, 10.0).oxygen_onset_v_rhe == pytest.approx(1.229 + 0.32)
+    assert kinetics("Ni", ALKALINE, 10.0).oxygen_onset_v_rhe == pytest.approx(O2_LINE + 0.42)
+    assert kinetics("IrO2", ALKALINE, 10.0).oxygen_onset_v_rhe == pytest.approx(O2_LINE + 0.32)
 
 
 def test_acid_oxygen_order_follows_the_oxide_volcano():
@@ -101,7 +112,7 @@ def test_window_width_is_oxygen_minus_hydrogen_onset():
 
 
 def test_onsets_follow_the_oxygen_line_of_the_temperature():
-    assert kinetics("IrO2", ACID, oxygen_reversible_v_rhe=1.20).oxygen_onset_v_rhe == pytest.approx(
+    assert kinetics("IrO2", ACID, oxygen_reversible_v_rhe=O2_LINE - 0.029).oxygen_onset_v_rhe == pytest.approx(
         kinetics("IrO2", ACID).oxygen_onset_v_rhe - 0.029)
 
 
