@@ -1,13 +1,16 @@
 """The judgement of one material in one role: stability, a conducting surface, kinetics, robustness, notes.
 
-This is the one place the screen calls per material (after its thermodynamic overlay): it takes what the
-window meets on the element's exact diagram and answers, in typed values, whether a practitioner would
-accept the material for the role and why. Sources: roles (``engine.roles``), surface conduction
-(``engine.conduction``), Tafel onsets (``engine.kinetics``), Monte Carlo robustness
-(``engine.robustness``), notes (``engine.notes``).
+This is the one place the screen calls (``judge_all``, after its thermodynamic overlay): it takes what the
+window meets on each element's exact diagram and answers, in typed values, whether a practitioner would
+accept each material for the role and why. A material is acceptable when every species the window meets
+(kinetically negligible ones waived) lies in a region the role accepts, its surface conducts where the
+role passes current through it, and it keeps its own phase where the role asks that. Sources: roles
+(``engine.roles``), surface conduction (``engine.conduction``), Tafel onsets (``engine.kinetics``), Monte
+Carlo robustness (``engine.robustness``), notes (``engine.notes``).
 """
 
 from dataclasses import dataclass
+
 import numpy as np
 
 from .conduction import Surface, governing_surface, surface_of
