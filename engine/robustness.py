@@ -211,7 +211,8 @@ def _seen(off, ph, e, corners, bad, keep) -> tuple[np.ndarray, np.ndarray]:
     """(bad side seen, good side seen) per row: at some probe one side's species lies strictly lowest, so
     that side holds a positive share of the window there. Seeing decides presence; only absence needs
     the exact test."""
-    probes = _probes(corners)
+    probes = _probes(corners)[: 2 * len(corners)]
+    probes = np.concatenate([probes, corners.mean(axis=0)[None]])  # corners, edge midpoints, centre
     values = np.where(keep[:, None, :], off[:, None, :] + ph[:, None, :] * probes[:, :1]
                       + e[:, None, :] * probes[:, 1:], np.inf)
     bad_low = np.where(bad[:, None, :], values, np.inf).min(axis=2)
@@ -284,6 +285,17 @@ def species_present(planes: Planes, offsets: np.ndarray, corners) -> np.ndarray:
     return _meets(offsets, ph, e, corners, everyone, everyone)
 
 
+@lru_cache(maxsize=1024)
+def _species_data(species: tuple, default_uncertainty: float) -> tuple[np.ndarray, np.ndarray, tuple[str, ...]]:
+    """Per species: the uncertainty of ΔGf° [kJ/mol] (0 for the element, the default where none is stated),
+    the region's severity, and the names of the species that took the default."""
+    sigma = np.array([0.0 if s.is_element else (default_uncertainty if s.uncertainty is None else s.uncertainty)
+                      for s in species])
+    severity = np.array([SEVERITY[s.region] for s in species], dtype=float)
+    defaulted = tuple(s.name for s in species if s.uncertainty is None and not s.is_element)
+    return sigma, severity, defaulted
+
+
 def _padded(questions: list[Question], settings: RobustnessSettings):
     """The questions' planes as (question, species) arrays, padded with inert species."""
     width = max(len(q.planes.species) for q in questions)
@@ -294,10 +306,8 @@ def _padded(questions: list[Question], settings: RobustnessSettings):
     for row, question in enumerate(questions):
         planes, n = question.planes, len(question.planes.species)
         off[row, :n], ph[row, :n], e[row, :n] = planes.offset, planes.ph_slope, planes.e_slope
-        sigma = [0.0 if s.is_element else (settings.default_uncertainty_kj_mol if s.uncertainty is None
-                                           else s.uncertainty) for s in planes.species]
-        spread[row, :n] = np.asarray(sigma) / (KJ_PER_EV * planes.metal_atoms)
-        severity[row, :n] = [SEVERITY[region] for region in planes.regions]
+        sigma, severity[row, :n], _ = _species_data(planes.species, settings.default_uncertainty_kj_mol)
+        spread[row, :n] = sigma / (KJ_PER_EV * planes.metal_atoms)
         bad[row, :n] = [name in question.unacceptable for name in planes.index_of]
         real[row, :n] = True
     return off, ph, e, spread, severity, bad, real
@@ -368,8 +378,7 @@ def robustness_many(questions: list[Question], corners, *, draws: int | None = N
                                       repeat(sure_bad[ask]), repeat(sure_good[ask]))
         outcome_share[ask] = (verdicts.reshape(len(ask), draws) == nominal[ask, None]).mean(axis=1)
     return [Robustness(verdict_probability=float(share), draws=draws, verdict=VERDICTS[code],
-                       defaulted=tuple(name for s, name in zip(q.planes.species, q.planes.index_of)
-                                       if s.uncertainty is None and not s.is_element))
+                       defaulted=_species_data(q.planes.species, settings.default_uncertainty_kj_mol)[2])
             for q, share, code in zip(questions, outcome_share, nominal)]
 
 
