@@ -17,6 +17,9 @@ from pydantic import AfterValidator, BaseModel, ConfigDict, Field, StringConstra
 from pydantic_core import PydanticCustomError
 
 from electrosieve.engine.inputs import ACTIVITY_RANGE, DEFAULT_ACTIVITY, TEMPERATURE_RANGE_C
+from electrosieve.engine.conduction import CONDUCTIONS
+from electrosieve.engine.notes import KINDS
+from electrosieve.engine.kinetics import CURRENT_DENSITY_RANGE, DEFAULT_CURRENT_DENSITY
 from electrosieve.engine.domains import PlotLimits
 from electrosieve.engine.materials import FAMILIES
 from electrosieve.engine.ranking import DEFAULT_ORDER, RANK_KEYS
@@ -72,21 +75,23 @@ class ScenarioIn(StrictIn):
         DEFAULT_ACTIVITY, description="activity of every dissolved species")
     temperature: Annotated[float, Field(ge=TEMPERATURE_RANGE_C[0], le=TEMPERATURE_RANGE_C[1])] = Field(
         25.0, description="temperature [°C]")
-    role: Role = "anode"
-    accept: Annotated[list[Region], Field(min_length=1, max_length=3)] | None = Field(
-        None, description="acceptable regions; default: immunity for a cathode, immunity and passivation for an anode")
+    role: Role = Field("anode", description="electrode role (see /docs): " + ", ".join(ROLES))
+    accept: Annotated[list[Region], Field(min_length=1, max_length=len(REGIONS))] | None = Field(
+        None, description="acceptable regions; default: the role's own (e.g. immunity for a cathode)")
     materials: Annotated[list[MaterialId], Field(min_length=1, max_length=MATERIALS_MAX)] | None = Field(
         None, description="material ids; omitted or null means every material")
     family: Family | None = None
     rank_by: Annotated[list[RankKey], Field(min_length=1, max_length=len(RANK_KEYS))] | None = None
     weights: Annotated[dict[RankKey, Weight], Field(max_length=len(RANK_KEYS))] | None = None
+    current_density: Annotated[float, Field(ge=CURRENT_DENSITY_RANGE[0], le=CURRENT_DENSITY_RANGE[1])] = Field(
+        DEFAULT_CURRENT_DENSITY, description="current density at which kinetic onsets are read [mA cm^-2]")
 
     def engine_arguments(self) -> dict:
         """Keyword arguments of ``engine.screen.make_scenario``."""
         return {"ph": self.ph, "potential": self.potential, "scale": self.scale, "activity": self.activity,
                 "temperature": self.temperature, "role": self.role, "accept": self.accept,
                 "materials": self.materials, "family": self.family, "rank_by": self.rank_by,
-                "weights": self.weights or None}
+                "weights": self.weights or None, "current_density": self.current_density}
 
 
 class ScenarioEcho(Out):
@@ -101,8 +106,9 @@ class ScenarioEcho(Out):
     accept: list[str]
     materials: list[str] | None
     family: str | None
-    rank_by: list[str]
+    rank_by: list[str] = Field(description="the ranking order chosen; empty for the role's own rule")
     weights: dict[str, float]
+    current_density: float = Field(DEFAULT_CURRENT_DENSITY, description="[mA cm^-2] of the kinetic onsets")
 
 
 class Fractions(Out):
@@ -122,6 +128,30 @@ class Hazard(Out):
     kind: Literal["toxic", "gas"]
     species: str
     note: str
+
+
+class SurfaceOut(Out):
+    phase: str
+    conduction: Literal[CONDUCTIONS]  # type: ignore[valid-type]
+    source: str = Field(description="a key of /api/v1/sources or 'common practice'")
+
+
+class KineticsOut(Out):
+    current_density_ma_cm2: float
+    hydrogen_onset_v_rhe: float | None = Field(description="hydrogen evolution onset [V vs RHE]; null without data")
+    oxygen_onset_v_rhe: float | None = Field(description="oxygen evolution onset [V vs RHE]; null without data")
+    sources: list[str]
+
+
+class RobustnessOut(Out):
+    verdict_probability: float = Field(ge=0, le=1)
+    draws: int
+
+
+class NoteOut(Out):
+    kind: Literal[KINDS]  # type: ignore[valid-type]
+    text: str
+    source: str
 
 
 class ScreenRow(Out):
@@ -148,6 +178,13 @@ class ScreenRow(Out):
     price_usd_per_kg: float | None
     price_year: int | None
     reason: str
+    surface: SurfaceOut | None = Field(None, description="the least conducting surface the window meets; null where unknown")
+    kinetics: KineticsOut | None = Field(None, description="the material's own water window; null where unknown")
+    robustness: RobustnessOut | None = Field(None, description="how often the verdict holds within the data's uncertainties")
+    notes: list[NoteOut] = Field([], description="where thermodynamics alone misleads")
+    order_robust: bool | None = Field(
+        None, description="false when this row's place above the next could swap within the data's uncertainties")
+    dissolved: str | None = Field(None, description="the dissolved metal in words ('dissolves freely (> 1 M)', 'unknown (…)')")
 
 
 class OperatingWindowOut(Out):
@@ -404,6 +441,13 @@ class Choice(Out):
     label: str
 
 
+class RoleChoice(Out):
+    value: str
+    label: str
+    description: str
+    rule: str
+
+
 class ScreenLinks(Out):
     page: str
     json_twin: str
@@ -426,6 +470,7 @@ class ScreenPage(Out):
     links: ScreenLinks | None
     citations: dict[str, str] = Field(description="sources of the prices, abundances and reference scale shown")
     cautions: list[str]
+    roles: list[RoleChoice] = Field([], description="the electrode roles, each with what it checks and its rule")
 
 
 class CompareDiagram(Out):

@@ -9,6 +9,7 @@ from electrosieve.engine.diagram import diagram
 from electrosieve.engine.errors import ElectrosieveError
 from electrosieve.engine.inputs import DEFAULT_ACTIVITY
 from electrosieve.engine.ranking import RANK_KEYS
+from electrosieve.engine.roles import roles
 from electrosieve.engine.scales import canonical_scale
 from electrosieve.engine.screen import screen
 
@@ -16,7 +17,7 @@ from . import urls
 from .cautions import CAUTIONS
 from .errors import Unprocessable, engine_error, not_found
 from .figures import figure_dict
-from .models import Choice, FieldError, MaterialPage, MaterialsPage, ScenarioIn, ScreenLinks, ScreenPage
+from .models import Choice, FieldError, MaterialPage, MaterialsPage, RoleChoice, ScenarioIn, ScreenLinks, ScreenPage
 from .payloads import citation, diagram_payload, materials_payload, screen_payload, sources_payload
 from .viewstate import ENGINE_FIELD_TO_PARAM, ViewQuery, checked_scenario, parse_number
 
@@ -51,6 +52,8 @@ def form_choices(catalog: Catalog) -> dict:
         "families": [Choice(value=f, label=f) for f in families],
         "materials": [Choice(value=m.id, label=f"{m.name} ({m.family})") for m in catalog.materials.values()],
         "ranking_keys": [Choice(value=k, label=text) for k, text in RANK_KEYS.items()],
+        "roles": [RoleChoice(value=role.name, label=role.title, description=role.description, rule=role.rule)
+                  for role in roles().values()],
     }
 
 

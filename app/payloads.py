@@ -7,6 +7,7 @@ field to its response model in ``app.schemas``).
 
 from electrosieve.engine.catalog import Catalog
 from electrosieve.engine.diagram import Diagram, PointResult
+from electrosieve.engine.ordering import dissolved_words
 from electrosieve.engine.screen import Hazard, Scenario, ScreenResult, ScreenRow
 from electrosieve.engine.species import Species
 from electrosieve.engine.thermo import temperature_notes
@@ -139,6 +140,7 @@ def scenario_payload(scenario: Scenario) -> dict:
         "activity": scenario.activity, "temperature": scenario.temperature, "role": scenario.role,
         "accept": list(scenario.accept), "materials": None if scenario.materials is None else list(scenario.materials),
         "family": scenario.family, "rank_by": list(scenario.rank_by), "weights": dict(scenario.weights),
+        "current_density": scenario.current_density_ma_cm2,
     }
 
 
@@ -169,7 +171,24 @@ def row_payload(row: ScreenRow) -> dict:
         "hazards": [hazard_payload(h) for h in row.hazards],
         "price_usd_per_kg": material.price_usd_per_kg, "price_year": material.price_year,
         "verdict": row.verdict, "reason": row.reason,
+        "surface": None if row.surface is None else {
+            "phase": row.surface.phase, "conduction": row.surface.conduction, "source": row.surface.source},
+        "kinetics": None if row.kinetics is None else kinetics_payload(row.kinetics),
+        "robustness": None if row.robustness is None else {
+            "verdict_probability": round(row.robustness.verdict_probability, DIGITS["share"]),
+            "draws": row.robustness.draws},
+        "notes": [{"kind": n.kind, "text": n.text, "source": n.source} for n in row.notes],
+        "order_robust": row.order_robust,
+        "dissolved": dissolved_words(judged.log10_dissolved, material.element),
     }
+
+
+def kinetics_payload(kinetics) -> dict:
+    """A material's own hydrogen and oxygen onsets vs RHE [V] at a current density [mA cm^-2]; null where no data."""
+    onset = lambda v: None if v is None else round(v, DIGITS["potential"])  # noqa: E731
+    return {"current_density_ma_cm2": kinetics.current_density_ma_cm2,
+            "hydrogen_onset_v_rhe": onset(kinetics.hydrogen_onset_v_rhe),
+            "oxygen_onset_v_rhe": onset(kinetics.oxygen_onset_v_rhe), "sources": list(kinetics.sources)}
 
 
 def screen_payload(result: ScreenResult) -> dict:
@@ -189,7 +208,8 @@ def screen_payload(result: ScreenResult) -> dict:
 
 CSV_COLUMNS = ("rank", "material", "name", "element", "phase", "family", "verdict", "immunity", "passivation", "hydride",
                "corrosion", "instability_ev", "log10_dissolved", "margin_mv", "price_usd_per_kg", "price_year",
-               "hazards", "reason")
+               "hazards", "reason", "surface_phase", "surface_conduction", "hydrogen_onset_v_rhe", "oxygen_onset_v_rhe",
+               "current_density_ma_cm2", "verdict_probability", "order_robust", "dissolved", "notes")
 
 
 def csv_rows(result: dict) -> list[dict]:
@@ -199,5 +219,12 @@ def csv_rows(result: dict) -> list[dict]:
         flat = {key: row.get(key) for key in CSV_COLUMNS}
         flat.update(row["fractions"])
         flat["hazards"] = "; ".join(f"{h['species']}: {h['note']}" for h in row["hazards"])
+        surface, kinetics, robustness = row.get("surface") or {}, row.get("kinetics") or {}, row.get("robustness") or {}
+        flat.update(surface_phase=surface.get("phase"), surface_conduction=surface.get("conduction"),
+                    hydrogen_onset_v_rhe=kinetics.get("hydrogen_onset_v_rhe"),
+                    oxygen_onset_v_rhe=kinetics.get("oxygen_onset_v_rhe"),
+                    current_density_ma_cm2=kinetics.get("current_density_ma_cm2"),
+                    verdict_probability=robustness.get("verdict_probability"),
+                    notes="; ".join(f"{n['kind']}: {n['text']}" for n in row.get("notes") or []))
         rows.append(flat)
     return rows

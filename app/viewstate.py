@@ -18,7 +18,7 @@ from pydantic import BaseModel, ConfigDict, ValidationError
 
 from electrosieve.engine.catalog import Catalog
 from electrosieve.engine.errors import InputError
-from electrosieve.engine.ranking import DEFAULT_ORDER
+from electrosieve.engine.kinetics import DEFAULT_CURRENT_DENSITY
 from electrosieve.engine.screen import Scenario, make_scenario
 
 from .models import FieldError, ScenarioIn
@@ -97,7 +97,7 @@ def checked_scenario(scenario: ScenarioIn, catalog: Catalog) -> Scenario:
 
 def cli_scenario(*, ph: str, potential: str, scale: str, activity: str, temperature: str, role: str,
                  accept: str | None, materials: str | None, family: str | None, rank_by: str | None,
-                 weights: str | None, catalog: Catalog) -> Scenario:
+                 weights: str | None, catalog: Catalog, current_density: str = str(DEFAULT_CURRENT_DENSITY)) -> Scenario:
     """The scenario of ``electrosieve screen``'s flags (all text), checked by the engine."""
     accepted = parse_list(accept)
     if accepted is not None and not accepted:
@@ -106,7 +106,8 @@ def cli_scenario(*, ph: str, potential: str, scale: str, activity: str, temperat
         ph=list(parse_range(ph, "--ph")), potential=list(parse_range(potential, "--potential")), scale=scale,
         activity=parse_number(activity, "--activity"), temperature=parse_number(temperature, "--temperature"),
         role=role, accept=accepted, materials=parse_list(materials), family=family, rank_by=parse_list(rank_by),
-        weights=None if weights is None else parse_weights(weights, "--weights"), catalog=catalog)
+        weights=None if weights is None else parse_weights(weights, "--weights"), catalog=catalog,
+        current_density=parse_number(current_density, "--current-density"))
 
 
 UNION_TAG = re.compile(r"^(float|int|str|bool|none|list\[.*\]|dict\[.*\]|literal\[.*\]|function-.*|constrained-.*)$")
@@ -136,7 +137,7 @@ def field_errors(error: ValidationError, where: str, rename: dict | None = None,
 
 
 SCENARIO_PARAMS = ("ph_low", "ph_high", "potential_low", "potential_high", "scale", "temperature", "activity",
-                   "role", "accept", "pick", "family", "materials", "rank_by", "weights")
+                   "role", "accept", "pick", "family", "materials", "rank_by", "weights", "current_density")
 LIST_PARAMS = ("accept", "materials", "compare")
 
 ENGINE_FIELD_TO_PARAM = {"ph": "ph_low", "potential": "potential_low", "materials": "materials"}
@@ -171,6 +172,7 @@ class ViewQuery(BaseModel):
     weights: str = ""
     compare: list[str] = []
     axis: str = ""
+    current_density: str = ""
 
     @classmethod
     def from_params(cls, params) -> "ViewQuery":
@@ -209,8 +211,10 @@ class ViewQuery(BaseModel):
             temperature=_number_text(echo["temperature"]), activity=_number_text(echo["activity"]),
             role=echo["role"], accept=list(echo.get("accept") or []),
             pick="names" if materials else ("family" if family else "all"), family=family, materials=list(materials),
-            rank_by="" if list(rank_by) == list(DEFAULT_ORDER) else ",".join(rank_by),
+            rank_by=",".join(rank_by),
             weights=",".join(f"{k}:{_number_text(v)}" for k, v in (echo.get("weights") or {}).items()),
+            current_density="" if echo.get("current_density", DEFAULT_CURRENT_DENSITY) == DEFAULT_CURRENT_DENSITY
+            else _number_text(echo["current_density"]),
         )
 
     def params(self, *, scenario_only: bool = False) -> list[tuple[str, str]]:
@@ -253,6 +257,7 @@ class ViewQuery(BaseModel):
         ph_low, ph_high = number("ph_low"), number("ph_high", required=False)
         e_low, e_high = number("potential_low"), number("potential_high", required=False)
         temperature, activity = number("temperature"), number("activity")
+        current_density = number("current_density", required=False)
         weights = None
         if self.weights:
             try:
@@ -276,6 +281,7 @@ class ViewQuery(BaseModel):
             "family": self.family if picked == "family" else None,
             "rank_by": [k.strip().lower() for k in self.rank_by.split(",") if k.strip()] or None,
             "weights": weights,
+            **({} if current_density is None else {"current_density": current_density}),
         }
         try:
             return ScenarioIn.model_validate(candidate), []

@@ -16,7 +16,7 @@ import time
 from electrosieve.engine.catalog import default_catalog
 from electrosieve.engine.conduction import surfaces
 from electrosieve.engine.diagram import diagram
-from electrosieve.engine.domains import Window
+from electrosieve.engine.domains import PlotLimits
 from electrosieve.engine.judgement import Conditions, ElementState, judge_all
 from electrosieve.engine.metrics import overlays
 from electrosieve.engine.robustness import Question, robustness_many
@@ -53,7 +53,7 @@ def robustness_figures(repeats: int = 9) -> dict[str, dict[str, float]]:
         scenario = make_scenario(**given)
         role = roles()[role_name]
         window = operating_window(catalog.scales, scenario.ph, scenario.potential, scenario.scale,
-                                  scenario.temperature, Window())
+                                  scenario.temperature, PlotLimits())
         diagrams = [diagram(e, scenario.activity, scenario.temperature) for e in elements]
 
         def plain():

@@ -23,8 +23,8 @@ from .robustness import Question, Robustness, robustness_many, robustness_settin
 from .roles import Role, criterion_value
 from .water import WaterLines
 
-__all__ = ["Conditions", "ElementState", "Judgement", "Met", "judge", "judge_all", "notes_of", "question_of",
-           "rank_key"]
+__all__ = ["Conditions", "ElementState", "Judgement", "Met", "judge", "judge_all", "notes_of", "order_holds",
+           "question_of", "rank_key"]
 
 SHARE = 1e-9
 """Window shares below this count as none (the screen's tolerance on fractions)."""
@@ -116,12 +116,18 @@ def notes_of(material: Material, role: Role, state: ElementState, conditions: Co
         highest_v_rhe=max(e - water.hydrogen(p) for p, e in corners), anions=frozenset(conditions.anions)))
 
 
+def _bulk_conducts(material: Material) -> bool:
+    """Whether the material's own phase passes current (a role that carries current in the bulk needs it)."""
+    return surface_of(material.phase).passes_current
+
+
 def question_of(material: Material, role: Role, state: ElementState, notes: tuple[Note, ...]) -> Question:
     """The robustness question of one judgement: which species count against the material.
 
     A species counts when its region is not acceptable for the role, when it is an insulating film and
     the role passes current through the surface, or when it is not the material's own phase and the role
-    keeps the phase; species waived by a kinetic note never count.
+    keeps the phase; species waived by a kinetic note never count. Where the role carries current in the
+    bulk and the material itself is an insulator, every species counts.
     """
     waived = waived_species(notes)
     against = set()
@@ -132,6 +138,8 @@ def question_of(material: Material, role: Role, state: ElementState, notes: tupl
         changed = role.keeps_phase and name != material.phase
         if species.region not in role.accept or insulating or changed:
             against.add(name)
+    if not role.needs_conduction and not _bulk_conducts(material):  # no draw can make an insulator carry current
+        against = {species.name for species in state.planes.species}
     return Question(state.planes, frozenset(against - waived))
 
 
@@ -155,6 +163,8 @@ def judge(material: Material, role: Role, state: ElementState, conditions: Condi
         reasons.append(f"{verb} {m.species} over {100 * m.fraction:.0f}% of the window, "
                        f"not acceptable for {_article(role.title)} {role.title}")
     blocked = [s for s in surfaces if not s.passes_current] if role.needs_conduction else []
+    if not role.needs_conduction and not _bulk_conducts(material):  # current crosses the bulk instead
+        blocked.append(surface_of(material.phase))
     reasons += [s.reason for s in blocked]
     changed = [m for m in counted if m.species != material.phase] if role.keeps_phase else []
     if changed and not outside:
@@ -201,9 +211,43 @@ def judge_all(materials: list[Material], role: Role, states: dict[str, ElementSt
     return [judge(m, role, states[m.element], conditions, robustness=r) for m, r in zip(materials, results)]
 
 
+NEGLIGIBLE_DISSOLVED_LOG10 = -6.0
+"""Dissolved metal at or below 10^-6 M counts as none when ranking: the corrosion convention that draws the
+immunity and passivation domains (Pourbaix 1966, ch. 3), so a practitioner's next question, price, decides."""
+
+
 def rank_key(judgement: Judgement, role: Role) -> tuple:
-    """Sort key: acceptable first, then the role's criterion, least dissolved metal, lowest price, id;
-    every unknown after every known value of its criterion (``engine.ordering``)."""
+    """Sort key: acceptable first, then the role's criterion, least dissolved metal (all levels at or below
+    10^-6 M equal), lowest price, id; every unknown after every known value of its criterion
+    (``engine.ordering``)."""
     criterion = order_key(judgement.criterion_value, role.criterion.prefer) if role.criterion else (0, 0.0)
-    return (0 if judgement.acceptable else 1, criterion, order_key(judgement.log10_dissolved, "low"),
+    dissolved = judgement.log10_dissolved
+    dissolved = None if dissolved is None else round(max(dissolved, NEGLIGIBLE_DISSOLVED_LOG10), 6)
+    return (0 if judgement.acceptable else 1, criterion, order_key(dissolved, "low"),
             order_key(judgement.price_usd_per_kg, "low"), judgement.material.lower())
+
+
+def _criterion_spread(judgement: Judgement, role: Role) -> float:
+    """Standard uncertainty [V] of the role's kinetic value (0 where none is stated)."""
+    k = judgement.kinetics
+    hydrogen, oxygen = k.hydrogen_uncertainty_v or 0.0, k.oxygen_uncertainty_v or 0.0
+    name = role.criterion.name
+    return oxygen if name == "oxygen-onset" else (
+        float(np.hypot(hydrogen, oxygen)) if name == "window-width" else hydrogen)
+
+
+def order_holds(upper: Judgement, lower: Judgement, role: Role) -> bool:
+    """Whether ``upper`` stays ranked above its neighbour ``lower`` within the data's uncertainties.
+
+    Across the acceptable/rejected line, the order holds when both verdicts are robust (each holds in at
+    least ``fragile_below`` of the draws); within one group, when the role's kinetic values differ by more
+    than their combined standard uncertainty (GUM, JCGM 100:2008, eq. 10 for a difference). Orders set by
+    the rule itself (unknown after known, dissolved metal, price) hold.
+    """
+    fragile = robustness_settings().fragile_below
+    if upper.acceptable != lower.acceptable:
+        return min(upper.robustness.verdict_probability, lower.robustness.verdict_probability) >= fragile
+    if role.criterion is None or upper.criterion_value is None or lower.criterion_value is None:
+        return True
+    spread = float(np.hypot(_criterion_spread(upper, role), _criterion_spread(lower, role)))
+    return abs(upper.criterion_value - lower.criterion_value) > spread

@@ -41,11 +41,9 @@ that another beats everywhere in the window by more than both can move is set as
 
 
 class RobustnessSettings(BaseModel):
-    """``data/robustness.toml``: the default uncertainty [kJ/mol], the number of draws and the seed."""
+    """``data/robustness.toml``: the number of draws, the seed and the fragile-verdict threshold."""
 
     model_config = ConfigDict(extra="forbid", strict=True, frozen=True)
-    default_uncertainty_kj_mol: Number = Field(gt=0)
-    default_note: str
     draws: int = Field(ge=200)
     seed: int
     method_source: str
@@ -66,13 +64,13 @@ def robustness_settings(data_dir: Path | None = None) -> RobustnessSettings:
 class Robustness:
     """The share of draws [0–1] whose verdict equals ``verdict``, out of ``draws``.
 
-    ``defaulted`` names the species whose uncertainty was not stated and took the default.
+    Every species carries its own uncertainty (``Species.uncertainty``, filled from its data class where the
+    compilation states none: ``data/uncertainty.toml``).
     """
 
     verdict_probability: float
     draws: int
     verdict: str
-    defaulted: tuple[str, ...] = ()
 
 
 @dataclass(frozen=True, eq=False)
@@ -286,14 +284,11 @@ def species_present(planes: Planes, offsets: np.ndarray, corners) -> np.ndarray:
 
 
 @lru_cache(maxsize=1024)
-def _species_data(species: tuple, default_uncertainty: float) -> tuple[np.ndarray, np.ndarray, tuple[str, ...]]:
-    """Per species: the uncertainty of ΔGf° [kJ/mol] (0 for the element, the default where none is stated),
-    the region's severity, and the names of the species that took the default."""
-    sigma = np.array([0.0 if s.is_element else (default_uncertainty if s.uncertainty is None else s.uncertainty)
-                      for s in species])
+def _species_data(species: tuple) -> tuple[np.ndarray, np.ndarray]:
+    """Per species: the uncertainty of ΔGf° [kJ/mol] (0 for the element) and the region's severity."""
+    sigma = np.array([0.0 if s.is_element else s.uncertainty for s in species])
     severity = np.array([SEVERITY[s.region] for s in species], dtype=float)
-    defaulted = tuple(s.name for s in species if s.uncertainty is None and not s.is_element)
-    return sigma, severity, defaulted
+    return sigma, severity
 
 
 def _padded(questions: list[Question], settings: RobustnessSettings):
@@ -306,7 +301,7 @@ def _padded(questions: list[Question], settings: RobustnessSettings):
     for row, question in enumerate(questions):
         planes, n = question.planes, len(question.planes.species)
         off[row, :n], ph[row, :n], e[row, :n] = planes.offset, planes.ph_slope, planes.e_slope
-        sigma, severity[row, :n], _ = _species_data(planes.species, settings.default_uncertainty_kj_mol)
+        sigma, severity[row, :n] = _species_data(planes.species)
         spread[row, :n] = sigma / (KJ_PER_EV * planes.metal_atoms)
         bad[row, :n] = [name in question.unacceptable for name in planes.index_of]
         real[row, :n] = True
@@ -377,9 +372,8 @@ def robustness_many(questions: list[Question], corners, *, draws: int | None = N
             verdicts = _side_verdicts(drawn, repeat(ph), repeat(e), corners, repeat(bad), repeat(keep),
                                       repeat(sure_bad[ask]), repeat(sure_good[ask]))
         outcome_share[ask] = (verdicts.reshape(len(ask), draws) == nominal[ask, None]).mean(axis=1)
-    return [Robustness(verdict_probability=float(share), draws=draws, verdict=VERDICTS[code],
-                       defaulted=_species_data(q.planes.species, settings.default_uncertainty_kj_mol)[2])
-            for q, share, code in zip(questions, outcome_share, nominal)]
+    return [Robustness(verdict_probability=float(share), draws=draws, verdict=VERDICTS[code])
+            for share, code in zip(outcome_share, nominal)]
 
 
 def robustness(planes: Planes, corners, accept, *, blocking=frozenset(), waived=frozenset(),

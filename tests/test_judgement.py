@@ -11,7 +11,7 @@ import pytest
 from electrosieve.engine.catalog import default_catalog
 from electrosieve.engine.conduction import surface_of
 from electrosieve.engine.diagram import diagram
-from electrosieve.engine.domains import Window
+from electrosieve.engine.domains import PlotLimits
 from electrosieve.engine.judgement import Conditions, ElementState, Met, judge, judge_all, rank_key
 from electrosieve.engine.metrics import overlays
 from electrosieve.engine.roles import roles
@@ -23,7 +23,7 @@ def ranked(role_name: str, ph: tuple, potential: tuple, scale: str = "RHE", curr
     """Every catalog material judged for ``role_name`` over the window, in rank order."""
     catalog = default_catalog()
     role = roles()[role_name]
-    window = operating_window(catalog.scales, list(ph), list(potential), scale, 25.0, Window())
+    window = operating_window(catalog.scales, list(ph), list(potential), scale, 25.0, PlotLimits())
     elements = list(dict.fromkeys(m.element for m in catalog.materials.values()))
     diagrams = {e: diagram(e) for e in elements}
     overlay = dict(zip(elements, overlays(list(diagrams.values()), window)))
@@ -185,7 +185,7 @@ def test_kinetics_follow_the_chosen_current_density():
 def test_a_dissolving_material_keeps_its_own_surface():
     catalog = default_catalog()
     zinc = diagram("Zn")
-    window = operating_window(catalog.scales, [0, 1], [0.0, 0.2], "SHE", 25.0, Window())
+    window = operating_window(catalog.scales, [0, 1], [0.0, 0.2], "SHE", 25.0, PlotLimits())
     j = judge(catalog.materials["Zn"], roles()["anode"], ElementState(zinc.planes, (Met("Zn^2+", "corrosion", 1.0),), 108.0),
               Conditions(window.vertices, window.ph, zinc.water))
     assert j.surface == surface_of("Zn") and not j.acceptable
@@ -195,7 +195,7 @@ def test_a_dissolving_material_keeps_its_own_surface():
 def test_judging_one_by_one_gives_the_same_answers_as_the_single_pass():
     catalog = default_catalog()
     role = roles()["oer-anode"]
-    window = operating_window(catalog.scales, [13.5, 14.0], [1.5, 1.7], "RHE", 25.0, Window())
+    window = operating_window(catalog.scales, [13.5, 14.0], [1.5, 1.7], "RHE", 25.0, PlotLimits())
     for material in ("Ni", "Cu", "Ag", "Sn"):
         d = diagram(catalog.materials[material].element)
         (overlay,) = overlays([d], window)
