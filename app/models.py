@@ -81,7 +81,8 @@ class ScenarioIn(StrictIn):
     materials: Annotated[list[MaterialId], Field(min_length=1, max_length=MATERIALS_MAX)] | None = Field(
         None, description="material ids; omitted or null means every material")
     family: Family | None = None
-    rank_by: Annotated[list[RankKey], Field(min_length=1, max_length=len(RANK_KEYS))] | None = None
+    rank_by: Annotated[list[RankKey], Field(max_length=len(RANK_KEYS))] | None = Field(
+        None, description="a ranking order of your own; omitted, null or empty means the role's own rule")
     weights: Annotated[dict[RankKey, Weight], Field(max_length=len(RANK_KEYS))] | None = None
     current_density: Annotated[float, Field(ge=CURRENT_DENSITY_RANGE[0], le=CURRENT_DENSITY_RANGE[1])] = Field(
         DEFAULT_CURRENT_DENSITY, description="current density at which kinetic onsets are read [mA cm^-2]")
@@ -90,7 +91,7 @@ class ScenarioIn(StrictIn):
         """Keyword arguments of ``engine.screen.make_scenario``."""
         return {"ph": self.ph, "potential": self.potential, "scale": self.scale, "activity": self.activity,
                 "temperature": self.temperature, "role": self.role, "accept": self.accept,
-                "materials": self.materials, "family": self.family, "rank_by": self.rank_by,
+                "materials": self.materials, "family": self.family, "rank_by": self.rank_by or None,
                 "weights": self.weights or None, "current_density": self.current_density}
 
 

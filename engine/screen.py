@@ -97,7 +97,7 @@ def make_scenario(*, ph, potential, scale: str = "SHE", activity=DEFAULT_ACTIVIT
     return Scenario(
         ph=window.ph, potential=window.potential, window=window, scale=window.scale, activity=check_activity(activity),
         temperature=temperature, role=chosen_role.name, accept=accept_tuple, materials=ids, family=family,
-        rank_by=check_order(rank_by) if rank_by is not None else (),
+        rank_by=check_order(rank_by) if rank_by else (),
         weights=check_weights(weights) if weights else {},
         current_density_ma_cm2=check_number(current_density, "current_density", *CURRENT_DENSITY_RANGE,
                                             what=" mA cm^-2"),

@@ -17,7 +17,7 @@ MODULES = {path.stem: path for path in sorted(ENGINE.glob("*.py")) if path.stem 
 FORBIDDEN = ("electrosieve.app", "fastapi", "starlette", "plotly", "jinja2", "uvicorn", "sqlalchemy")
 """Packages the engine never imports: the app and the web and plotting libraries."""
 
-DATA_READERS = {"alloydata", "catalog", "datafiles", "materials"}
+DATA_READERS = {"alloydata", "catalog", "conduction", "datafiles", "kinetics", "materials", "notes", "robustness", "roles"}
 """The modules that read and validate ``data/`` files; only they may use pydantic (a parsing library, no web)."""
 
 OPTIONAL_HEAVY = ()
