@@ -192,9 +192,12 @@ def cmd_screen(args) -> None:
 
 VERDICT_SHORT = {"partly acceptable": "partly"}
 CONDUCTION_SHORT = {"semiconductor": "semicond."}
-KINETIC_HEADINGS = {"oxygen-onset": "O2 V RHE", "hydrogen-onset": "H2 V RHE", "hydrogen-held-back": "H2 V RHE",
+KINETIC_HEADINGS = {"oxygen-onset": "O2 V", "hydrogen-onset": "H2 V", "hydrogen-held-back": "H2 V",
                     "window-width": "width V"}
 """The table's heading for each role's kinetic criterion (``engine.roles``)."""
+CRITERION_WORDS = {"oxygen-onset": "the material's oxygen-evolution onset", "hydrogen-onset": "its hydrogen-evolution onset",
+                   "hydrogen-held-back": "its hydrogen-evolution onset",
+                   "window-width": "its own water window (oxygen onset minus hydrogen onset)"}
 
 
 def _draws(result: dict) -> int:
@@ -222,6 +225,7 @@ def _dissolved_cell(log10: float | None) -> str:
 
 
 def _print_screen(result: dict) -> None:
+    from rich import box
     from rich.table import Table
 
     s = result["scenario"]
@@ -232,21 +236,26 @@ def _print_screen(result: dict) -> None:
     kinetic = None if criterion is None or s["rank_by"] or s["weights"] else criterion.name
     caption = (f"{result['rule']} surface: the least conducting surface met; p: share of {_draws(result)} draws "
                "in which the verdict holds (~: may swap with the next row within the data's uncertainties); "
-               + (f"{KINETIC_HEADINGS[kinetic]} at {s['current_density']:g} mA cm^-2; " if kinetic else "")
+               + (f"{KINETIC_HEADINGS[kinetic]}: {CRITERION_WORDS[kinetic]} vs RHE at {s['current_density']:g} mA cm^-2; "
+                  if kinetic else "")
                + "log c: largest equilibrium dissolved metal, log10 M (free: above 1 M; ?: unknown).")
-    table = Table(title=title, caption=caption, show_lines=False)
+    table = Table(title=title, caption=caption, show_lines=False, box=box.SIMPLE_HEAD, pad_edge=False)
     columns = ("#", "material", "verdict", "surface", "p", *([KINETIC_HEADINGS[kinetic]] if kinetic else []), "log c",
-               "USD/kg", "reason")
+               "USD/kg")
     for column in columns:
-        table.add_column(column, overflow="fold")
+        table.add_column(column, overflow="fold", no_wrap=column not in ("material",),
+                         justify="right" if column in ("#", "p", "log c", "USD/kg", *KINETIC_HEADINGS.values()) else "left")
     for row in result["results"]:
         price, surface, robust = row["price_usd_per_kg"], row["surface"], row["robustness"]
         p = "-" if robust is None else f"{robust['verdict_probability']:.2f}" + ("~" if row["order_robust"] is False else "")
         table.add_row(str(row["rank"]), row["material"], VERDICT_SHORT.get(row["verdict"], row["verdict"]),
                       "-" if surface is None else CONDUCTION_SHORT.get(surface["conduction"], surface["conduction"]), p,
                       *([_kinetic_cell(row["kinetics"], kinetic)] if kinetic else []), _dissolved_cell(row["log10_dissolved"]),
-                      "-" if price is None else f"{price:,.0f}", row["reason"])
+                      "-" if price is None else f"{price:,.0f}")
     console.print(table)
+    console.print("Why:")
+    for row in result["results"]:
+        console.print(f" {row['rank']:>2} {row['material']}: {row['reason']}", highlight=False)
     noted = [(row["material"], n) for row in result["results"][:10] for n in row["notes"] if n["kind"] != "kinetic"]
     for material, note in noted:
         console.print(f"[bold]{note['kind']}[/bold] {material}: {note['text']} ({note['source']})")

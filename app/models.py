@@ -500,6 +500,16 @@ class ComparePage(Out):
     cautions: list[str]
 
 
+class OnsetLine(Out):
+    material: str
+    gas: Literal["hydrogen", "oxygen"]
+    medium: str
+    ph: list[float] = Field(description="[low, high] pH band of the medium the data were measured in")
+    v_rhe: float = Field(description="onset [V vs RHE] at the current density (Tafel equation)")
+    current_density_ma_cm2: float
+    sources: list[str]
+
+
 class MaterialPage(Out):
     """One material: its diagram, boundary equations, species data with citations, hazards and cautions."""
 
@@ -512,6 +522,7 @@ class MaterialPage(Out):
     links: dict[str, str]
     cautions: list[str]
     unchecked: list[str] = Field(description="species of the element whose values no independent published check covers")
+    onsets: list[OnsetLine] = Field([], description="the material's own hydrogen and oxygen onsets drawn on its diagram")
 
 
 class MaterialsPage(Out):

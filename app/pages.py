@@ -18,7 +18,7 @@ from .cautions import CAUTIONS
 from .errors import Unprocessable, engine_error, not_found
 from .figures import figure_dict
 from .models import Choice, FieldError, MaterialPage, MaterialsPage, RoleChoice, ScenarioIn, ScreenLinks, ScreenPage
-from .payloads import citation, diagram_payload, materials_payload, screen_payload, sources_payload
+from .payloads import citation, diagram_payload, materials_payload, onset_lines_payload, screen_payload, sources_payload
 from .viewstate import ENGINE_FIELD_TO_PARAM, ViewQuery, checked_scenario, parse_number
 
 def screen_result(scenario: ScenarioIn, catalog: Catalog, *, where: str | list = "body", rename: dict | None = None) -> dict:
@@ -116,9 +116,10 @@ def material_page_data(material_id: str, catalog: Catalog, activity: str | None,
     try:
         result = diagram(material.element, activity_value, temperature_value, catalog=catalog)
         payload = diagram_payload(result, catalog)
+        onsets = onset_lines_payload(material.id, result)
         figure = figure_dict(payload, scales=catalog.scales, scale_id=axis_id,
                              title=f"{material.name}: {material.element}, {temperature_value:g} °C, "
-                                   f"dissolved at {activity_value:g}")
+                                   f"dissolved at {activity_value:g}", onsets=onsets)
     except ElectrosieveError as error:
         raise Unprocessable([engine_error(error, "query", {"scale": "axis"})]) from None
     listed = next(row for row in materials_payload(catalog) if row["id"] == material.id)
@@ -130,4 +131,4 @@ def material_page_data(material_id: str, catalog: Catalog, activity: str | None,
     return MaterialPage(material=listed, diagram=payload, figure=figure,
                         sources=sources_payload(catalog, material.element), scales=form_choices(catalog)["scales"],
                         axis=axis_id, links=links, cautions=list(CAUTIONS),
-                        unchecked=[species.name for species in catalog.unchecked(material.element)])
+                        unchecked=[species.name for species in catalog.unchecked(material.element)], onsets=onsets)

@@ -7,6 +7,7 @@ field to its response model in ``app.schemas``).
 
 from electrosieve.engine.catalog import Catalog
 from electrosieve.engine.diagram import Diagram, PointResult
+from electrosieve.engine.kinetics import DEFAULT_CURRENT_DENSITY, kinetic_table, kinetics
 from electrosieve.engine.ordering import dissolved_words
 from electrosieve.engine.screen import Hazard, Scenario, ScreenResult, ScreenRow
 from electrosieve.engine.species import Species
@@ -181,6 +182,25 @@ def row_payload(row: ScreenRow) -> dict:
         "order_robust": row.order_robust,
         "dissolved": dissolved_words(judged.log10_dissolved, material.element),
     }
+
+
+def onset_lines_payload(material_id: str, diagram: Diagram, current_density_ma_cm2: float = DEFAULT_CURRENT_DENSITY) -> list[dict]:
+    """The material's own hydrogen and oxygen onsets [V vs RHE] per medium with data, each over its medium's pH
+    band within the diagram's limits (``engine.kinetics``); none where the material has no published data."""
+    water, limits = diagram.water, diagram.limits
+    lines = []
+    for medium in kinetic_table().media:
+        ph = [max(medium.ph_min, limits.ph_min), min(medium.ph_max, limits.ph_max)]
+        if ph[0] >= ph[1]:
+            continue
+        found = kinetics(material_id, (ph[0], ph[1]), current_density_ma_cm2,
+                         oxygen_reversible_v_rhe=water.oxygen_intercept - water.hydrogen_intercept)
+        for gas, value in (("hydrogen", found.hydrogen_onset_v_rhe), ("oxygen", found.oxygen_onset_v_rhe)):
+            if value is not None:
+                lines.append({"material": material_id, "gas": gas, "medium": medium.name, "ph": ph,
+                              "v_rhe": round(value, DIGITS["potential"]),
+                              "current_density_ma_cm2": found.current_density_ma_cm2, "sources": list(found.sources)})
+    return lines
 
 
 def kinetics_payload(kinetics) -> dict:

@@ -13,7 +13,7 @@ from .errors import InputError
 RANK_KEYS = {
     "unacceptable": "least window share outside the acceptable regions",
     "instability": "least free energy of the candidate's own phase above the stable state",
-    "dissolved": "least equilibrium dissolved metal",
+    "dissolved": "least equilibrium dissolved metal (unknown last)",
     "price": "lowest price per kg (unknown prices last)",
     "margin": "widest potential margin before an unacceptable region",
 }
@@ -63,7 +63,7 @@ def sort_value(row, key: str) -> float:
         return round(row.instability_ev, RESOLUTION[key])
     if key == "dissolved":
         value = row.log10_dissolved
-        return -math.inf if value is None else round(value, RESOLUTION[key])
+        return math.inf if value is None else round(value, RESOLUTION[key])  # unknown is never best
     if key == "price":
         price = row.price_usd_per_kg
         return math.inf if price is None else price

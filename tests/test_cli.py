@@ -166,7 +166,7 @@ def test_screen_by_role_shows_the_role_criterion_and_fits_80_columns(capsys):
     code, out, _ = run(capsys, "screen", "--ph", "0:1", "--potential=-0.1:0", "--scale", "RHE", "--role", "her-cathode",
                        "--materials", "Pt,Hg,Ni", "--current-density", "10")
     assert code == 0
-    assert "H2 V RHE" in out and "at 10 mA cm^-2" in " ".join(out.split())
+    assert "H2 V" in out and "vs RHE at 10 mA cm^-2" in " ".join(out.split())
     assert max(len(line) for line in out.splitlines()) <= 80
 
 
