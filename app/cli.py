@@ -251,7 +251,7 @@ def _print_screen(result: dict) -> None:
         table.add_row(str(row["rank"]), row["material"], VERDICT_SHORT.get(row["verdict"], row["verdict"]),
                       "-" if surface is None else CONDUCTION_SHORT.get(surface["conduction"], surface["conduction"]), p,
                       *([_kinetic_cell(row["kinetics"], kinetic)] if kinetic else []), _dissolved_cell(row["log10_dissolved"]),
-                      "-" if price is None else f"{price:,.0f}")
+                      "-" if price is None else (f"{price:,.0f}" if price >= 10 else f"{price:.2g}"))
     console.print(table)
     console.print("Why:")
     for row in result["results"]:

@@ -8,7 +8,6 @@ field to its response model in ``app.schemas``).
 from electrosieve.engine.catalog import Catalog
 from electrosieve.engine.diagram import Diagram, PointResult
 from electrosieve.engine.kinetics import DEFAULT_CURRENT_DENSITY, kinetic_table, kinetics
-from electrosieve.engine.ordering import dissolved_words
 from electrosieve.engine.screen import Hazard, Scenario, ScreenResult, ScreenRow
 from electrosieve.engine.species import Species
 from electrosieve.engine.thermo import temperature_notes
@@ -166,7 +165,7 @@ def row_payload(row: ScreenRow) -> dict:
                           for p in judged.pieces],
         "window_dimension": row.window_dimension,
         "instability_ev": round(row.instability_ev, DIGITS["energy_ev"]), "instability_at": list(row.instability_at),
-        "log10_dissolved": None if judged.log10_dissolved is None else round(judged.log10_dissolved, DIGITS["log10"]),
+        "log10_dissolved": None if row.log10_dissolved is None else round(row.log10_dissolved, DIGITS["log10"]),
         "dissolved_at": None if judged.dissolved_at is None else list(judged.dissolved_at),
         "margin_mv": round(1000 * judged.margin_v, DIGITS["millivolt"]), "margin_capped": judged.margin_capped,
         "hazards": [hazard_payload(h) for h in row.hazards],
@@ -180,7 +179,7 @@ def row_payload(row: ScreenRow) -> dict:
             "draws": row.robustness.draws},
         "notes": [{"kind": n.kind, "text": n.text, "source": n.source} for n in row.notes],
         "order_robust": row.order_robust,
-        "dissolved": dissolved_words(judged.log10_dissolved, material.element),
+        "dissolved": row.dissolved_text,
     }
 
 

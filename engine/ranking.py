@@ -9,6 +9,7 @@ the candidates (price on a log scale), lowest first.
 import math
 
 from .errors import InputError
+from .ordering import dissolved_words
 
 RANK_KEYS = {
     "unacceptable": "least window share outside the acceptable regions",
@@ -124,8 +125,6 @@ def reason(row) -> str:
         tail = f"{own} is up to {energy:.2f} eV per atom above the stable state"
     text = f"{where}; {tail}"
     dissolved = row.log10_dissolved
-    if dissolved is not None and dissolved >= 0:
-        text += "; somewhere in the window no solid holds the metal (equilibrium dissolved metal above 1 M)"
-    elif dissolved is not None and dissolved > -6 + 1e-9:
-        text += f"; dissolved metal up to 10^{dissolved:.1f} M"
+    if dissolved is not None and dissolved > -6 + 1e-9:
+        text += "; " + dissolved_words(dissolved)
     return text

@@ -24,6 +24,7 @@ from .kinetics import CURRENT_DENSITY_RANGE, DEFAULT_CURRENT_DENSITY, Kinetics
 from .materials import FAMILIES, Material
 from .metrics import Piece, largest_gap, margin, overlays, region_fractions
 from .notes import Note
+from .ordering import dissolved_words, unknown_reason
 from .ranking import RANK_KEYS, check_order, check_weights, rank, reason
 from .robustness import Robustness
 from .roles import Role, check_role, roles
@@ -215,6 +216,9 @@ class ScreenRow:
     """The role's judgement (``engine.judgement``): stable, conducting and unchanged where the role asks it."""
     order_robust: bool | None = None
     """False when this row's place above the next one could swap within the data's uncertainties; None for the last."""
+    dissolved_unknown: bool = False
+    """True when the element's equilibrium figure counts species a kinetic note sets aside (carbon's CO2), or the
+    data hold no dissolved species: the dissolved metal is unknown, never best."""
 
     @property
     def id(self) -> str:
@@ -238,7 +242,8 @@ class ScreenRow:
 
     @property
     def log10_dissolved(self) -> float | None:
-        return self.judged.log10_dissolved
+        """Largest equilibrium dissolved metal over the window [log10 mol/kg]; None where unknown."""
+        return None if self.dissolved_unknown else self.judged.log10_dissolved
 
     @property
     def margin_v(self) -> float:
@@ -247,6 +252,13 @@ class ScreenRow:
     @property
     def price_usd_per_kg(self) -> float | None:
         return self.material.price_usd_per_kg
+
+    @property
+    def dissolved_text(self) -> str:
+        """The dissolved metal in words: "dissolves freely (> 1 M)" above 1 M; "unknown" and why where unknown."""
+        if self.dissolved_unknown and self.judged.log10_dissolved is not None:
+            return unknown_reason("dissolved metal", "the equilibrium figure counts species that form too slowly to matter")
+        return dissolved_words(self.log10_dissolved, self.material.element)
 
 
 @dataclass(frozen=True)
@@ -377,9 +389,14 @@ def judge_rows(rows: list[ScreenRow], scenario: Scenario, catalog: Catalog,
     conditions = Conditions(window.vertices, window.ph, next(iter(verdicts.values())).diagram.water,
                             scenario.current_density_ma_cm2)
     judgements = judge_all([row.material for row in rows], scenario.judged_role, states, conditions)
-    return [(replace(row, surface=j.surface, kinetics=j.kinetics, robustness=j.robustness, notes=j.notes,
-                     acceptable=j.acceptable, reason="; ".join([*j.reasons, row.reason])), j)
-            for row, j in zip(rows, judgements)]
+    judged = []
+    for row, j in zip(rows, judgements):
+        row = replace(row, surface=j.surface, kinetics=j.kinetics, robustness=j.robustness, notes=j.notes,
+                      acceptable=j.acceptable, dissolved_unknown=j.log10_dissolved is None)
+        said = dissolved_words(row.log10_dissolved) if row.log10_dissolved is not None else None
+        reasons = [text for text in j.reasons if text != said]  # the row's own line says it
+        judged.append((replace(row, reason="; ".join([*reasons, reason(row)])), j))
+    return judged
 
 
 def role_order(judged: list[tuple[ScreenRow, Judgement]], role: Role) -> list[ScreenRow]:
