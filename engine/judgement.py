@@ -144,10 +144,11 @@ def question_of(material: Material, role: Role, state: ElementState, notes: tupl
 
 
 def judge(material: Material, role: Role, state: ElementState, conditions: Conditions, *,
-          robustness: Robustness | None = None, draws: int | None = None) -> Judgement:
-    """Judge ``material`` for ``role`` over the window; ``robustness`` may come precomputed from
-    :func:`judge_all`'s single pass (else it is computed here with ``draws``)."""
-    notes = notes_of(material, role, state, conditions)
+          robustness: Robustness | None = None, draws: int | None = None,
+          notes: tuple[Note, ...] | None = None) -> Judgement:
+    """Judge ``material`` for ``role`` over the window; ``robustness`` and ``notes`` may come precomputed from
+    :func:`judge_all`'s single pass (else they are computed here, robustness with ``draws``)."""
+    notes = notes_of(material, role, state, conditions) if notes is None else notes
     waived = waived_species(notes)
     phases = {s.name: s.phase for s in state.planes.species}
     counted = [m for m in state.met if m.species not in waived]
@@ -208,7 +209,8 @@ def judge_all(materials: list[Material], role: Role, states: dict[str, ElementSt
     notes = [notes_of(m, role, states[m.element], conditions) for m in materials]
     questions = [question_of(m, role, states[m.element], n) for m, n in zip(materials, notes)]
     results = robustness_many(questions, conditions.corners, draws=draws)
-    return [judge(m, role, states[m.element], conditions, robustness=r) for m, r in zip(materials, results)]
+    return [judge(m, role, states[m.element], conditions, robustness=r, notes=n)
+            for m, r, n in zip(materials, results, notes)]
 
 
 NEGLIGIBLE_DISSOLVED_LOG10 = -6.0

@@ -26,7 +26,7 @@ from .constants import KJ_PER_EV
 from .datafiles import Number, read_toml
 from .domains import SEVERITY, TIE
 from .errors import CatalogError, InputError
-from .geometry import EPS, SLIVER, stack_areas
+from .geometry import SLIVER, clip_stack, stack_areas
 from .planes import Planes
 
 __all__ = ["VERDICTS", "Question", "Robustness", "RobustnessSettings", "robustness", "robustness_many",
@@ -100,31 +100,6 @@ def _gather(values: np.ndarray, index: np.ndarray) -> np.ndarray:
     return np.take_along_axis(values, np.maximum(index, 0), axis=1)
 
 
-def _clip_rows(points: np.ndarray, a: np.ndarray, b: np.ndarray, c: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
-    """Each convex polygon of a stack (rows, width, 2) clipped by its own half-plane a + b·x + c·y ≤ 0.
-
-    Sutherland & Hodgman (1974) as ``engine.geometry.clip_stack`` does it, with one half-plane per row.
-    Returns the clipped stack and which rows kept any point.
-    """
-    rows, width = points.shape[:2]
-    values = a[:, None] + b[:, None] * points[..., 0] + c[:, None] * points[..., 1]
-    scale = np.maximum(1.0, np.maximum(np.abs(a), np.maximum(np.abs(b), np.abs(c))))
-    inside = values <= EPS * scale[:, None]
-    following = np.roll(points, -1, axis=1)
-    following_values = np.roll(values, -1, axis=1)
-    crossing = inside != np.roll(inside, -1, axis=1)
-    t = values / np.where(crossing, values - following_values, 1.0)
-    crossings = points + t[..., None] * (following - points)
-    candidates = np.stack((points, crossings), axis=2).reshape(rows, 2 * width, 2)
-    kept = np.stack((inside, crossing), axis=2).reshape(rows, 2 * width)
-    counts = kept.sum(axis=1)
-    new_width = max(int(counts.max(initial=0)), 1)
-    order = np.argsort(~kept, axis=1, kind="stable")[:, :new_width]
-    slots = np.minimum(np.arange(new_width)[None, :], np.maximum(counts - 1, 0)[:, None])
-    order = np.take_along_axis(order, slots, axis=1)
-    return np.take_along_axis(candidates, order[..., None], axis=1), counts > 0
-
-
 def _extent(polygons: np.ndarray, corners: np.ndarray) -> np.ndarray:
     """Each polygon's share of the window: area over the window's area, or length over the segment's."""
     if len(corners) > 2:
@@ -145,7 +120,8 @@ def _cells(off, ph, e, corners, rows, rivals) -> tuple[np.ndarray, np.ndarray]:
     polygons = np.empty((len(alive), len(corners), 2))
     polygons[:] = corners
     for rival in range(a.shape[1]):
-        polygons, kept = _clip_rows(polygons, a[alive, rival], b[alive, rival], c[alive, rival])
+        polygons, kept = clip_stack(polygons, np.ones(len(alive), dtype=bool), a[alive, rival], b[alive, rival],
+                                    c[alive, rival])
         polygons, alive = polygons[kept], alive[kept]
     return polygons, alive
 
