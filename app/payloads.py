@@ -7,6 +7,7 @@ field to its response model in ``app.schemas``).
 
 from electrosieve.engine.catalog import Catalog
 from electrosieve.engine.diagram import Diagram, PointResult
+from electrosieve.engine.roles import roles
 from electrosieve.engine.kinetics import DEFAULT_CURRENT_DENSITY, kinetic_table, kinetics
 from electrosieve.engine.screen import Hazard, Scenario, ScreenResult, ScreenRow
 from electrosieve.engine.species import Species
@@ -200,6 +201,19 @@ def onset_lines_payload(material_id: str, diagram: Diagram, current_density_ma_c
                               "v_rhe": round(value, DIGITS["potential"]),
                               "current_density_ma_cm2": found.current_density_ma_cm2, "sources": list(found.sources)})
     return lines
+
+
+def roles_payload(catalog: Catalog) -> list[dict]:
+    """Every electrode role: what it checks, its ranking rule in words and the citations behind it."""
+    rows = []
+    for role in roles().values():
+        keys = [*role.sources, *([role.criterion.source] if role.criterion else [])]
+        rows.append({"name": role.name, "title": role.title, "description": role.description, "rule": role.rule,
+                     "accept": list(role.accept), "needs_conduction": role.needs_conduction,
+                     "keeps_phase": role.keeps_phase,
+                     "citations": [key if key not in catalog.sources else citation(catalog, key)
+                                   for key in dict.fromkeys(keys)]})
+    return rows
 
 
 def kinetics_payload(kinetics) -> dict:

@@ -41,13 +41,13 @@ def robustness_figures(repeats: int = 9) -> dict[str, dict[str, float]]:
     for name, given in SCENARIOS.items():
         scenario = make_scenario(**given)
 
-        def thermodynamic():
+        def thermodynamic(scenario=scenario):
             VERDICTS.clear()
             chosen = candidates(catalog, scenario)
             verdicts = judge_elements(catalog, scenario, list(dict.fromkeys(m.element for m in chosen)))
             rank([screen_material(m, scenario.window, verdicts[m.element]) for m in chosen], DEFAULT_ORDER)
 
-        def judged():
+        def judged(scenario=scenario):
             VERDICTS.clear()
             screen(scenario, catalog)
 

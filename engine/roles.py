@@ -92,10 +92,11 @@ class Role:
     def rule(self) -> str:
         """The ranking rule in words."""
         first = "acceptable materials first (stable over the window" + (
-            ", conducting surface" if self.needs_conduction else "") + (
+            ", conducting surface" if self.needs_conduction else ", conducting bulk") + (
             ", unchanged phase" if self.keeps_phase else "") + ")"
         middle = [self.criterion.words] if self.criterion else []
-        return "; then ".join([first, *middle, "least dissolved metal", "lowest price"]) + "; unknowns last."
+        return "; then ".join([first, *middle, "least dissolved metal (levels at or below 10^-6 M count as equal)",
+                               "lowest price"]) + "; unknowns last."
 
 
 def load_roles(path: Path, sources: dict | None = None) -> dict[str, Role]:

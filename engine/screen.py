@@ -400,12 +400,14 @@ def judge_rows(rows: list[ScreenRow], scenario: Scenario, catalog: Catalog,
 
 
 def role_order(judged: list[tuple[ScreenRow, Judgement]], role: Role) -> list[ScreenRow]:
-    """Rows in the role's order (``engine.judgement.rank_key``); among rejected rows, the least unacceptable
-    share of the window first. Each row's ``order_robust`` says whether its place above the next one holds."""
+    """Rows in the role's order (``engine.judgement.rank_key``); after the acceptable ones, partly acceptable
+    before rejected, the least unacceptable share of the window first. Each row's ``order_robust`` says whether
+    its place above the next one holds."""
     def key(pair):
         row, judgement = pair
         first, *rest = rank_key(judgement, role)
-        return (first, 0.0 if judgement.acceptable else round(row.unacceptable_fraction, 9), *rest)
+        return (first, VERDICT_WORDS.index(row.verdict), 0.0 if judgement.acceptable else round(row.unacceptable_fraction, 9),
+                *rest)
 
     ordered = sorted(judged, key=key)
     return [replace(row, order_robust=order_holds(j, below[1], role) if below else None)
