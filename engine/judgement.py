@@ -84,12 +84,14 @@ class ElementState:
     planes: Planes
     met: tuple[Met, ...]
     log10_dissolved: float | None
+    notes: tuple[Note, ...] = ()
+    """The element's own notes (``engine.notes.element_notes``); a kinetic one applies where its species is met."""
 
     @classmethod
-    def of(cls, planes: Planes, pieces, log10_dissolved: float | None) -> "ElementState":
+    def of(cls, planes: Planes, pieces, log10_dissolved: float | None, notes: tuple[Note, ...] = ()) -> "ElementState":
         """From any objects with ``species``, ``region`` and ``fraction`` (shares at or below 1e-9 dropped)."""
         return cls(planes, tuple(Met(p.species, p.region, p.fraction) for p in pieces if p.fraction > SHARE),
-                   log10_dissolved)
+                   log10_dissolved, notes)
 
 
 @dataclass(frozen=True, eq=False)
@@ -106,9 +108,12 @@ class Conditions:
 
 
 def notes_of(material: Material, role: Role, state: ElementState, conditions: Conditions) -> tuple[Note, ...]:
-    """The notes that apply to ``material`` in ``role`` over the window (``engine.notes``)."""
+    """The notes that apply to ``material`` in ``role`` over the window: the element's own, then the rules of
+    ``data/notes.toml`` (``engine.notes``)."""
     water, corners = conditions.water, np.asarray(conditions.corners, dtype=float).reshape(-1, 2)
-    return notes_for(Situation(
+    met = {m.species for m in state.met}
+    own = tuple(n for n in state.notes if not n.waives or met & set(n.waives))
+    return own + notes_for(Situation(
         element=material.element, family=material.family, role=role.name,
         met_species=frozenset(m.species for m in state.met), met_regions=frozenset(m.region for m in state.met),
         hydrogen_evolves=any(e < water.hydrogen(p) - 1e-9 for p, e in corners),

@@ -14,7 +14,7 @@ from typing import Literal
 
 from pydantic import BaseModel, ConfigDict, model_validator
 
-from .catalog import builtin_data_dir
+from .catalog import Catalog, builtin_data_dir
 from .conduction import COMMON_PRACTICE
 from .datafiles import Number, read_toml, validate_rows
 from .errors import CatalogError
@@ -140,6 +140,19 @@ def notes_for(situation: Situation, rules: tuple[NoteRule, ...] | None = None) -
     rules = note_rules() if rules is None else rules
     return tuple(Note(kind=r.kind, text=r.text, source=r.source or COMMON_PRACTICE, waives=r.waives)
                  for r in rules if _applies(r, situation))
+
+
+CATALOG_KINDS = {"kinetic": "kinetic", "scope": "caution", "hazard": "caution"}
+"""How a species file's note kinds (``Catalog.notes``) read beside a result: a kinetic note stays kinetic (and
+waives its species); what the data leave out, or a hazard, is a caution."""
+
+
+def element_notes(catalog: Catalog, element: str) -> tuple[Note, ...]:
+    """The notes of ``element``'s species file (``Catalog.notes``) as result notes; a kinetic note waives its
+    species (e.g. methane on carbon, Pourbaix 1966)."""
+    return tuple(Note(kind=CATALOG_KINDS[n.kind], text=" ".join(n.text.split()), source=n.source,
+                      waives=tuple(n.species) if n.kind == "kinetic" else ())
+                 for n in catalog.notes(element))
 
 
 def waived_species(notes: tuple[Note, ...]) -> frozenset[str]:

@@ -23,7 +23,7 @@ from .judgement import Conditions, ElementState, Judgement, judge_all, order_hol
 from .kinetics import CURRENT_DENSITY_RANGE, DEFAULT_CURRENT_DENSITY, Kinetics
 from .materials import FAMILIES, Material
 from .metrics import Piece, largest_gap, margin, overlays, region_fractions
-from .notes import Note
+from .notes import Note, element_notes
 from .ordering import dissolved_words, unknown_reason
 from .ranking import RANK_KEYS, check_order, check_weights, rank, reason
 from .robustness import Robustness
@@ -383,7 +383,8 @@ def judge_rows(rows: list[ScreenRow], scenario: Scenario, catalog: Catalog,
     """Each row judged for the scenario's role (``engine.judgement.judge_all``, robustness in one pass), its
     surface, kinetics, robustness, notes and acceptability filled in and the role's reasons put first."""
     states = {element: ElementState.of(v.diagram.planes, v.pieces,
-                                       None if catalog.lacks_dissolved(element) else v.log10_dissolved)
+                                       None if catalog.lacks_dissolved(element) else v.log10_dissolved,
+                                       element_notes(catalog, element))
               for element, v in verdicts.items()}
     window = scenario.window
     conditions = Conditions(window.vertices, window.ph, next(iter(verdicts.values())).diagram.water,

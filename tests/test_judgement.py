@@ -14,6 +14,7 @@ from electrosieve.engine.diagram import diagram
 from electrosieve.engine.domains import PlotLimits
 from electrosieve.engine.judgement import Conditions, ElementState, Met, judge, judge_all, rank_key
 from electrosieve.engine.metrics import overlays
+from electrosieve.engine.notes import element_notes
 from electrosieve.engine.roles import roles
 from electrosieve.engine.window import operating_window
 
@@ -27,7 +28,8 @@ def ranked(role_name: str, ph: tuple, potential: tuple, scale: str = "RHE", curr
     elements = list(dict.fromkeys(m.element for m in catalog.materials.values()))
     diagrams = {e: diagram(e) for e in elements}
     overlay = dict(zip(elements, overlays(list(diagrams.values()), window)))
-    states = {e: ElementState.of(diagrams[e].planes, overlay[e].pieces, overlay[e].dissolved) for e in elements}
+    states = {e: ElementState.of(diagrams[e].planes, overlay[e].pieces, overlay[e].dissolved, element_notes(catalog, e))
+              for e in elements}
     conditions = Conditions(window.vertices, window.ph, diagrams[elements[0]].water, current_density)
     judged = judge_all(list(catalog.materials.values()), role, states, conditions)
     return sorted(judged, key=lambda j: rank_key(j, role))

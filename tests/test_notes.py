@@ -5,7 +5,7 @@ import pytest
 from electrosieve.engine.catalog import builtin_data_dir, default_catalog
 from electrosieve.engine.conduction import COMMON_PRACTICE
 from electrosieve.engine.errors import CatalogError
-from electrosieve.engine.notes import KINDS, Situation, load_notes, note_rules, notes_for, waived_species
+from electrosieve.engine.notes import KINDS, Situation, element_notes, load_notes, note_rules, notes_for, waived_species
 
 
 def situation(element="C", family="carbon", role="cathode", met=(), regions=(), h2=False, o2=False, anions=(), top=0.0):
@@ -15,7 +15,7 @@ def situation(element="C", family="carbon", role="cathode", met=(), regions=(), 
 def test_every_rule_names_a_known_source_or_common_practice():
     sources = default_catalog().sources
     rules = load_notes(builtin_data_dir() / "notes.toml", sources)
-    assert len(rules) == 9  # checksum: a deliberate edit of data/notes.toml updates it
+    assert len(rules) == 8  # checksum: a deliberate edit of data/notes.toml updates it
     for rule in rules:
         assert rule.kind in KINDS
         assert rule.common_practice or rule.source in sources
@@ -28,11 +28,19 @@ def test_waived_species_exist_in_the_catalog():
 
 
 def test_carbon_methane_is_kinetically_negligible_and_waived():
-    # Kinoshita (1988), Carbon: methane formation on carbon cathodes is negligible at room temperature.
-    notes = notes_for(situation(met={"C", "CH4"}, regions={"immunity", "corrosion"}, h2=True))
+    # Pourbaix (1966), carbon chapter: methane formation on carbon cathodes is negligible at room temperature; the
+    # note lives once, in carbon's species file (Catalog.notes), and waives CH4.
+    notes = element_notes(default_catalog(), "C")
     assert [n.kind for n in notes] == ["kinetic"]
     assert waived_species(notes) == {"CH4"}
-    assert notes[0].source == "kinoshita1988"
+    assert notes[0].source == "pourbaix1966"
+    assert not notes_for(situation(met={"C", "CH4"}, regions={"immunity", "corrosion"}, h2=True))
+
+
+def test_scope_notes_of_the_catalog_read_as_cautions():
+    # Palladium takes up hydrogen (common practice, Pd species file); Ta's dissolution is unknown from the data.
+    assert [n.kind for n in element_notes(default_catalog(), "Pd")] == ["caution"]
+    assert "unknown" in element_notes(default_catalog(), "Ta")[0].text
 
 
 def test_carbon_oxidation_is_not_waived_where_it_is_fast():
