@@ -133,7 +133,7 @@ def _applies(rule: NoteRule, situation: Situation) -> bool:
 def notes_for(situation: Situation, rules: tuple[NoteRule, ...] | None = None) -> tuple[Note, ...]:
     """The notes whose conditions hold, in file order.
 
-    >>> s = Situation("C", "carbon", "cathode", frozenset({"CH4"}), frozenset({"corrosion"}), True, False)
+    >>> s = Situation("C", "carbon", "counter-electrode", frozenset({"CO2"}), frozenset({"corrosion"}), False, False, 0.5)
     >>> [n.kind for n in notes_for(s)]
     ['kinetic']
     """
