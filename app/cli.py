@@ -16,6 +16,7 @@ from electrosieve.engine.electrolyte import electrolyte
 from electrosieve.engine.inputs import DEFAULT_ACTIVITY, check_temperature
 from electrosieve.engine.errors import ElectrosieveError, InputError
 from electrosieve.engine.scales import canonical_scale, convert, needs_ph
+from electrosieve.engine.roles import roles
 from electrosieve.engine.screen import screen
 
 from . import csvcells, payloads
@@ -211,7 +212,8 @@ def cmd_screen(args) -> None:
                             temperature=args.temperature, role=args.role, accept=args.accept,
                             materials=args.materials, family=args.family, rank_by=args.rank_by,
                             weights=args.weights, catalog=catalog, electrolyte=args.electrolyte,
-                            ion_activity=args.ion_activity, chloride=args.chloride)
+                            ion_activity=args.ion_activity, chloride=args.chloride,
+                            current_density=args.current_density)
     result = payloads.screen_payload(screen(scenario, catalog))
     if args.csv:
         write_csv(result, sys.stdout)
@@ -219,25 +221,75 @@ def cmd_screen(args) -> None:
     _emit(args, result, _print_screen)
 
 
+VERDICT_SHORT = {"partly acceptable": "partly"}
+CONDUCTION_SHORT = {"semiconductor": "semicond."}
+KINETIC_HEADINGS = {"oxygen-onset": "O2 V", "hydrogen-onset": "H2 V", "hydrogen-held-back": "H2 V",
+                    "window-width": "width V"}
+"""The table's heading for each role's kinetic criterion (``engine.roles``)."""
+CRITERION_WORDS = {"oxygen-onset": "the material's oxygen-evolution onset", "hydrogen-onset": "its hydrogen-evolution onset",
+                   "hydrogen-held-back": "its hydrogen-evolution onset",
+                   "window-width": "its own water window (oxygen onset minus hydrogen onset)"}
+
+
+def _draws(result: dict) -> int:
+    return next((row["robustness"]["draws"] for row in result["results"] if row["robustness"]), 0)
+
+
+def _kinetic_cell(kinetics: dict | None, criterion: str) -> str:
+    """The role's kinetic value as the table shows it [V]; ? where unknown."""
+    if kinetics is None:
+        return "?"
+    hydrogen, oxygen = kinetics["hydrogen_onset_v_rhe"], kinetics["oxygen_onset_v_rhe"]
+    if criterion == "oxygen-onset":
+        value = oxygen
+    elif criterion == "window-width":
+        value = None if hydrogen is None or oxygen is None else oxygen - hydrogen
+    else:
+        value = hydrogen
+    return "?" if value is None else f"{value:.2f}"
+
+
+def _dissolved_cell(log10: float | None) -> str:
+    if log10 is None:
+        return "?"
+    return "free" if log10 >= 0 else f"{log10:.1f}"
+
+
 def _print_screen(result: dict) -> None:
+    from rich import box
     from rich.table import Table
 
     s = result["scenario"]
     console = _console()
     title = (f"{s['role']} at pH {s['ph']}, {s['potential']} V vs {s['scale']}, {s['temperature']:g} °C, "
              f"dissolved species at {s['activity']:g}; acceptable: {', '.join(s['accept'])}")
-    table = Table(title=title, caption=result["rule"], show_lines=False)
-    for column in ("#", "material", "verdict", "imm %", "pass %", "corr %", "ΔΦ eV", "log c", "margin mV", "USD/kg", "reason"):
-        table.add_column(column, overflow="fold")
+    criterion = roles()[s["role"]].criterion
+    kinetic = None if criterion is None or s["rank_by"] or s["weights"] else criterion.name
+    caption = (f"{result['rule']} surface: the least conducting surface met; p: share of {_draws(result)} draws "
+               "in which the verdict holds (~: may swap with the next row within the data's uncertainties); "
+               + (f"{KINETIC_HEADINGS[kinetic]}: {CRITERION_WORDS[kinetic]} vs RHE at {s['current_density']:g} mA cm^-2; "
+                  if kinetic else "")
+               + "log c: largest equilibrium dissolved metal, log10 M (free: above 1 M; ?: unknown).")
+    table = Table(title=title, caption=caption, show_lines=False, box=box.SIMPLE_HEAD, pad_edge=False)
+    columns = ("#", "material", "verdict", "surface", "p", *([KINETIC_HEADINGS[kinetic]] if kinetic else []), "log c",
+               "USD/kg")
+    for column in columns:
+        table.add_column(column, overflow="fold", no_wrap=column not in ("material",),
+                         justify="right" if column in ("#", "p", "log c", "USD/kg", *KINETIC_HEADINGS.values()) else "left")
     for row in result["results"]:
-        f = row["fractions"]
-        price = row["price_usd_per_kg"]
-        table.add_row(str(row["rank"]), row["material"], row["verdict"], f"{100 * f['immunity']:.0f}",
-                      f"{100 * f['passivation']:.0f}", f"{100 * f['corrosion']:.0f}", f"{row['instability_ev']:.2f}",
-                      "-" if row["log10_dissolved"] is None else f"{row['log10_dissolved']:.1f}",
-                      f"{row['margin_mv']:.0f}" + ("+" if row["margin_capped"] and row["margin_mv"] > 0 else ""),
-                      "-" if price is None else f"{price:,.0f}", row["reason"])
+        price, surface, robust = row["price_usd_per_kg"], row["surface"], row["robustness"]
+        p = "-" if robust is None else f"{robust['verdict_probability']:.2f}" + ("~" if row["order_robust"] is False else "")
+        table.add_row(str(row["rank"]), row["material"], VERDICT_SHORT.get(row["verdict"], row["verdict"]),
+                      "-" if surface is None else CONDUCTION_SHORT.get(surface["conduction"], surface["conduction"]), p,
+                      *([_kinetic_cell(row["kinetics"], kinetic)] if kinetic else []), _dissolved_cell(row["log10_dissolved"]),
+                      "-" if price is None else (f"{price:,.0f}" if price >= 10 else f"{price:.2g}"))
     console.print(table)
+    console.print("Why:")
+    for row in result["results"]:
+        console.print(f" {row['rank']:>2} {row['material']}: {row['reason']}", highlight=False)
+    noted = [(row["material"], n) for row in result["results"][:10] for n in row["notes"] if n["kind"] != "kinetic"]
+    for material, note in noted:
+        console.print(f"[bold]{note['kind']}[/bold] {material}: {note['text']} ({note['source']})")
     console.print(f"{result['conditions']} Neutral pH {result['neutral_ph']:.2f}.")
     if result["temperature_notes"]:
         console.print("Approximations used away from 25 °C (see `electrosieve diagram ELEMENT --temperature T`): "
@@ -395,7 +447,10 @@ def build_parser() -> argparse.ArgumentParser:
     sub.add_argument("--scale", default="SHE", help="reference scale of --potential (default SHE)")
     sub.add_argument("--activity", default=str(DEFAULT_ACTIVITY), help="activity of dissolved species (default 1e-6)")
     sub.add_argument("--temperature", default="25", help="temperature in °C (default 25)")
-    sub.add_argument("--role", default="anode", help="anode or cathode (default anode)")
+    sub.add_argument("--role", default="anode", metavar="ROLE",
+                     help=f"electrode role: {', '.join(roles())} (default anode; see the README for each role's criteria)")
+    sub.add_argument("--current-density", default="1", metavar="MA_CM2",
+                     help="current density at which each material's hydrogen and oxygen onsets are read [mA cm^-2] (default 1)")
     sub.add_argument("--accept", metavar="REGIONS", help="acceptable regions, e.g. immunity,passivation "
                      "(default: immunity for a cathode, immunity and passivation for an anode)")
     sub.add_argument("--materials", metavar="IDS", help="comma-separated material ids (default: all)")

@@ -30,6 +30,13 @@ WATER_STYLE = {
 }
 """The two water lines: the same ink, long dashes for hydrogen and round dots for oxygen."""
 
+ONSET_STYLE = {
+    "hydrogen": {"color": "#4a565d", "dash": "dash", "width": 2.6},
+    "oxygen": {"color": "#4a565d", "dash": "dot", "width": 3.0},
+}
+"""The material's own onsets (Tafel, at a current density): soft ink, heavier, the water lines' dash code, drawn
+over the pH band of the medium their data were measured in (docs/DESIGN.md)."""
+
 WINDOW_STYLE = {"color": "#0d5c63", "width": 2.5}
 WINDOW_FILL = "rgba(13, 92, 99, 0.14)"
 FONT = "system-ui, -apple-system, 'Segoe UI', Roboto, 'Noto Sans', Arial, sans-serif"
@@ -140,12 +147,13 @@ def scale_label(scales: dict, scale_id: str) -> str:
 
 def diagram_figure(payload: dict, *, operating_window: list[list[float]] | None = None,
                    title: str | None = None, potential_offset: float = 0.0, scale: str = "SHE",
-                   offset_slope: float = 0.0) -> go.Figure:
+                   offset_slope: float = 0.0, onsets: list[dict] | None = None) -> go.Figure:
     """A figure from a diagram payload (``app.payloads.diagram_payload``).
 
     The potential axis is shown on ``scale`` (a label, see :func:`scale_label`):
     E_scale = E_SHE − potential_offset − offset_slope·pH (offset_slope is the Nernst slope for the RHE,
-    0 otherwise). ``operating_window`` is a polygon [[pH, E vs SHE], …] drawn on top.
+    0 otherwise). ``operating_window`` is a polygon [[pH, E vs SHE], …] drawn on top; ``onsets`` are the
+    material's own hydrogen and oxygen onsets (``app.payloads.onset_lines_payload``) drawn beside the water lines.
     """
 
     def on_scale(ph: float, e: float) -> float:
@@ -182,6 +190,16 @@ def diagram_figure(payload: dict, *, operating_window: list[list[float]] | None 
             mode="lines", line=style["line"], name=style["name"],
             hovertemplate=f"{style['name']}<br>pH %{{x:.2f}}, E %{{y:.3f}} {unit}<extra></extra>",
         ))
+    hydrogen = payload["water"]["hydrogen"]
+    for onset in onsets or []:
+        style = ONSET_STYLE[onset["gas"]]
+        name = (f"{'H₂' if onset['gas'] == 'hydrogen' else 'O₂'} onset on {onset['material']}, "
+                f"{onset['current_density_ma_cm2']:g} mA cm⁻² ({onset['medium']})")
+        figure.add_trace(go.Scatter(
+            x=onset["ph"], y=[on_scale(ph, onset["v_rhe"] + hydrogen["intercept"] + hydrogen["slope"] * ph)
+                              for ph in onset["ph"]],
+            mode="lines", line=style, name=name,
+            hovertemplate=f"{name}: {onset['v_rhe']:.2f} V vs RHE<br>pH %{{x:.2f}}, E %{{y:.3f}} {unit}<extra></extra>"))
     if operating_window:
         xs = [p[0] for p in operating_window] + [operating_window[0][0]]
         ys = [on_scale(*p) for p in operating_window] + [on_scale(*operating_window[0])]
@@ -234,11 +252,11 @@ def axis_offsets(scales: dict, scale_id: str, temperature_c: float) -> tuple[flo
 
 
 def figure_dict(payload: dict, *, scales: dict, scale_id: str = "SHE", operating_window=None,
-                title: str | None = None) -> dict:
+                title: str | None = None, onsets: list[dict] | None = None) -> dict:
     """The figure of a diagram payload as plain JSON (``data`` and ``layout``) for plotly.js in the page."""
     offset, slope = axis_offsets(scales, scale_id, payload["temperature_c"])
     figure = diagram_figure(payload, operating_window=operating_window, title=title, potential_offset=offset,
-                            scale=scale_label(scales, scale_id), offset_slope=slope)
+                            scale=scale_label(scales, scale_id), offset_slope=slope, onsets=onsets)
     figure.update_layout(template=None, plot_bgcolor="#ffffff", paper_bgcolor="#ffffff",
                          xaxis={"showline": True, "linecolor": "#444", "ticks": "outside", "mirror": True},
                          yaxis={"showline": True, "linecolor": "#444", "ticks": "outside", "mirror": True})

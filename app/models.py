@@ -17,6 +17,9 @@ from pydantic import AfterValidator, BaseModel, ConfigDict, Field, StringConstra
 from pydantic_core import PydanticCustomError
 
 from electrosieve.engine.inputs import ACTIVITY_RANGE, DEFAULT_ACTIVITY, LIGAND_ACTIVITY_RANGE, TEMPERATURE_RANGE_C
+from electrosieve.engine.conduction import CONDUCTIONS
+from electrosieve.engine.notes import KINDS
+from electrosieve.engine.kinetics import CURRENT_DENSITY_RANGE, DEFAULT_CURRENT_DENSITY
 from electrosieve.engine.domains import PlotLimits
 from electrosieve.engine.materials import FAMILIES
 from electrosieve.engine.ranking import DEFAULT_ORDER, RANK_KEYS
@@ -83,13 +86,14 @@ class ScenarioIn(StrictIn):
         DEFAULT_ACTIVITY, description="activity of every dissolved species")
     temperature: Annotated[float, Field(ge=TEMPERATURE_RANGE_C[0], le=TEMPERATURE_RANGE_C[1])] = Field(
         25.0, description="temperature [°C]")
-    role: Role = "anode"
-    accept: Annotated[list[Region], Field(min_length=1, max_length=3)] | None = Field(
-        None, description="acceptable regions; default: immunity for a cathode, immunity and passivation for an anode")
+    role: Role = Field("anode", description="electrode role (see /docs): " + ", ".join(ROLES))
+    accept: Annotated[list[Region], Field(min_length=1, max_length=len(REGIONS))] | None = Field(
+        None, description="acceptable regions; default: the role's own (e.g. immunity for a cathode)")
     materials: Annotated[list[MaterialId], Field(min_length=1, max_length=MATERIALS_MAX)] | None = Field(
         None, description="material ids; omitted or null means every material")
     family: Family | None = None
-    rank_by: Annotated[list[RankKey], Field(min_length=1, max_length=len(RANK_KEYS))] | None = None
+    rank_by: Annotated[list[RankKey], Field(max_length=len(RANK_KEYS))] | None = Field(
+        None, description="a ranking order of your own; omitted, null or empty means the role's own rule")
     weights: Annotated[dict[RankKey, Weight], Field(max_length=len(RANK_KEYS))] | None = None
     electrolyte: Recipe | None = Field(None, description="electrolyte recipe, e.g. '0.6 M NaCl', '30 wt% KOH', "
                                        "'seawater' (grammar: `electrosieve electrolyte`)", examples=["seawater"])
@@ -97,14 +101,17 @@ class ScenarioIn(StrictIn):
         None, description="activity of named dissolved species, overriding `activity` and the recipe for those "
         "only", examples=[{"Cu^2+": 0.1}])
     chloride: Chloride | None = Field(None, description="free chloride activity (overrides the recipe's)")
+    current_density: Annotated[float, Field(ge=CURRENT_DENSITY_RANGE[0], le=CURRENT_DENSITY_RANGE[1])] = Field(
+        DEFAULT_CURRENT_DENSITY, description="current density at which kinetic onsets are read [mA cm^-2]")
 
     def engine_arguments(self) -> dict:
         """Keyword arguments of ``engine.screen.make_scenario``."""
         return {"ph": self.ph, "potential": self.potential, "scale": self.scale, "activity": self.activity,
                 "temperature": self.temperature, "role": self.role, "accept": self.accept,
-                "materials": self.materials, "family": self.family, "rank_by": self.rank_by,
+                "materials": self.materials, "family": self.family, "rank_by": self.rank_by or None,
                 "weights": self.weights or None, "electrolyte": self.electrolyte,
-                "ion_activities": self.ion_activities, "chloride": self.chloride}
+                "ion_activities": self.ion_activities, "chloride": self.chloride,
+                "current_density": self.current_density}
 
 
 class ScenarioEcho(Out):
@@ -119,11 +126,12 @@ class ScenarioEcho(Out):
     accept: list[str]
     materials: list[str] | None
     family: str | None
-    rank_by: list[str]
+    rank_by: list[str] = Field(description="the ranking order chosen; empty for the role's own rule")
     weights: dict[str, float]
     electrolyte: str | None = None
     ion_activities: dict[str, float] | None = None
     chloride: float | None = None
+    current_density: float = Field(DEFAULT_CURRENT_DENSITY, description="[mA cm^-2] of the kinetic onsets")
 
 
 class Fractions(Out):
@@ -143,6 +151,30 @@ class Hazard(Out):
     kind: Literal["toxic", "gas"]
     species: str
     note: str
+
+
+class SurfaceOut(Out):
+    phase: str
+    conduction: Literal[CONDUCTIONS]  # type: ignore[valid-type]
+    source: str = Field(description="a key of /api/v1/sources or 'common practice'")
+
+
+class KineticsOut(Out):
+    current_density_ma_cm2: float
+    hydrogen_onset_v_rhe: float | None = Field(description="hydrogen evolution onset [V vs RHE]; null without data")
+    oxygen_onset_v_rhe: float | None = Field(description="oxygen evolution onset [V vs RHE]; null without data")
+    sources: list[str]
+
+
+class RobustnessOut(Out):
+    verdict_probability: float = Field(ge=0, le=1)
+    draws: int
+
+
+class NoteOut(Out):
+    kind: Literal[KINDS]  # type: ignore[valid-type]
+    text: str
+    source: str
 
 
 class ScreenRow(Out):
@@ -171,6 +203,13 @@ class ScreenRow(Out):
     reason: str
     caution: str | None = Field(None, description="pitting in chloride, in plain words, where the window meets a "
                                 "passive region")
+    surface: SurfaceOut | None = Field(None, description="the least conducting surface the window meets; null where unknown")
+    kinetics: KineticsOut | None = Field(None, description="the material's own water window; null where unknown")
+    robustness: RobustnessOut | None = Field(None, description="how often the verdict holds within the data's uncertainties")
+    notes: list[NoteOut] = Field([], description="where thermodynamics alone misleads")
+    order_robust: bool | None = Field(
+        None, description="false when this row's place above the next could swap within the data's uncertainties")
+    dissolved: str | None = Field(None, description="the dissolved metal in words ('dissolves freely (> 1 M)', 'unknown (…)')")
 
 
 class OperatingWindowOut(Out):
@@ -460,6 +499,13 @@ class Choice(Out):
     label: str
 
 
+class RoleChoice(Out):
+    value: str
+    label: str
+    description: str
+    rule: str
+
+
 class ScreenLinks(Out):
     page: str
     json_twin: str
@@ -482,6 +528,7 @@ class ScreenPage(Out):
     links: ScreenLinks | None
     citations: dict[str, str] = Field(description="sources of the prices, abundances and reference scale shown")
     cautions: list[str]
+    roles: list[RoleChoice] = Field([], description="the electrode roles, each with what it checks and its rule")
 
 
 class CompareDiagram(Out):
@@ -510,6 +557,16 @@ class ComparePage(Out):
     cautions: list[str]
 
 
+class OnsetLine(Out):
+    material: str
+    gas: Literal["hydrogen", "oxygen"]
+    medium: str
+    ph: list[float] = Field(description="[low, high] pH band of the medium the data were measured in")
+    v_rhe: float = Field(description="onset [V vs RHE] at the current density (Tafel equation)")
+    current_density_ma_cm2: float
+    sources: list[str]
+
+
 class MaterialPage(Out):
     """One material: its diagram, boundary equations, species data with citations, hazards and cautions."""
 
@@ -522,6 +579,7 @@ class MaterialPage(Out):
     links: dict[str, str]
     cautions: list[str]
     unchecked: list[str] = Field(description="species of the element whose values no independent published check covers")
+    onsets: list[OnsetLine] = Field([], description="the material's own hydrogen and oxygen onsets drawn on its diagram")
 
 
 class MaterialsPage(Out):

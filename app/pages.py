@@ -9,6 +9,7 @@ from electrosieve.engine.diagram import diagram
 from electrosieve.engine.errors import ElectrosieveError
 from electrosieve.engine.inputs import DEFAULT_ACTIVITY
 from electrosieve.engine.ranking import RANK_KEYS
+from electrosieve.engine.roles import roles
 from electrosieve.engine.scales import canonical_scale
 from electrosieve.engine.screen import screen
 
@@ -16,8 +17,8 @@ from . import urls
 from .cautions import CAUTIONS
 from .errors import Unprocessable, engine_error, not_found
 from .figures import figure_dict
-from .models import Choice, FieldError, MaterialPage, MaterialsPage, ScenarioIn, ScreenLinks, ScreenPage
-from .payloads import citation, diagram_payload, materials_payload, screen_payload, sources_payload
+from .models import Choice, FieldError, MaterialPage, MaterialsPage, RoleChoice, ScenarioIn, ScreenLinks, ScreenPage
+from .payloads import citation, diagram_payload, materials_payload, onset_lines_payload, screen_payload, sources_payload
 from .viewstate import ENGINE_FIELD_TO_PARAM, ViewQuery, checked_scenario, parse_number
 
 def screen_result(scenario: ScenarioIn, catalog: Catalog, *, where: str | list = "body", rename: dict | None = None) -> dict:
@@ -51,6 +52,8 @@ def form_choices(catalog: Catalog) -> dict:
         "families": [Choice(value=f, label=f) for f in families],
         "materials": [Choice(value=m.id, label=f"{m.name} ({m.family})") for m in catalog.materials.values()],
         "ranking_keys": [Choice(value=k, label=text) for k, text in RANK_KEYS.items()],
+        "roles": [RoleChoice(value=role.name, label=role.title, description=role.description, rule=role.rule)
+                  for role in roles().values()],
     }
 
 
@@ -113,9 +116,10 @@ def material_page_data(material_id: str, catalog: Catalog, activity: str | None,
     try:
         result = diagram(material.element, activity_value, temperature_value, catalog=catalog)
         payload = diagram_payload(result, catalog)
+        onsets = onset_lines_payload(material.id, result)
         figure = figure_dict(payload, scales=catalog.scales, scale_id=axis_id,
                              title=f"{material.name}: {material.element}, {temperature_value:g} °C, "
-                                   f"dissolved at {activity_value:g}")
+                                   f"dissolved at {activity_value:g}", onsets=onsets)
     except ElectrosieveError as error:
         raise Unprocessable([engine_error(error, "query", {"scale": "axis"})]) from None
     listed = next(row for row in materials_payload(catalog) if row["id"] == material.id)
@@ -127,4 +131,4 @@ def material_page_data(material_id: str, catalog: Catalog, activity: str | None,
     return MaterialPage(material=listed, diagram=payload, figure=figure,
                         sources=sources_payload(catalog, material.element), scales=form_choices(catalog)["scales"],
                         axis=axis_id, links=links, cautions=list(CAUTIONS),
-                        unchecked=[species.name for species in catalog.unchecked(material.element)])
+                        unchecked=[species.name for species in catalog.unchecked(material.element)], onsets=onsets)

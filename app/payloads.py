@@ -8,6 +8,8 @@ field to its response model in ``app.schemas``).
 from electrosieve.engine.catalog import Catalog
 from electrosieve.engine.diagram import Diagram, PointResult
 from electrosieve.engine.electrolyte import Electrolyte
+from electrosieve.engine.roles import roles
+from electrosieve.engine.kinetics import DEFAULT_CURRENT_DENSITY, kinetic_table, kinetics
 from electrosieve.engine.screen import Hazard, Scenario, ScreenResult, ScreenRow
 from electrosieve.engine.solution import Solution
 from electrosieve.engine.species import Species
@@ -178,6 +180,7 @@ def scenario_payload(scenario: Scenario) -> dict:
         "family": scenario.family, "rank_by": list(scenario.rank_by), "weights": dict(scenario.weights),
         "electrolyte": None if scenario.solution.electrolyte is None else scenario.solution.electrolyte.recipe,
         "ion_activities": dict(scenario.solution.ion_activities) or None, "chloride": scenario.solution.chloride,
+        "current_density": scenario.current_density_ma_cm2,
     }
 
 
@@ -202,13 +205,62 @@ def row_payload(row: ScreenRow) -> dict:
                           for p in judged.pieces],
         "window_dimension": row.window_dimension,
         "instability_ev": round(row.instability_ev, DIGITS["energy_ev"]), "instability_at": list(row.instability_at),
-        "log10_dissolved": None if judged.log10_dissolved is None else round(judged.log10_dissolved, DIGITS["log10"]),
+        "log10_dissolved": None if row.log10_dissolved is None else round(row.log10_dissolved, DIGITS["log10"]),
         "dissolved_at": None if judged.dissolved_at is None else list(judged.dissolved_at),
         "margin_mv": round(1000 * judged.margin_v, DIGITS["millivolt"]), "margin_capped": judged.margin_capped,
         "hazards": [hazard_payload(h) for h in row.hazards],
         "price_usd_per_kg": material.price_usd_per_kg, "price_year": material.price_year,
         "verdict": row.verdict, "reason": row.reason, "caution": row.caution,
+        "surface": None if row.surface is None else {
+            "phase": row.surface.phase, "conduction": row.surface.conduction, "source": row.surface.source},
+        "kinetics": None if row.kinetics is None else kinetics_payload(row.kinetics),
+        "robustness": None if row.robustness is None else {
+            "verdict_probability": round(row.robustness.verdict_probability, DIGITS["share"]),
+            "draws": row.robustness.draws},
+        "notes": [{"kind": n.kind, "text": n.text, "source": n.source} for n in row.notes],
+        "order_robust": row.order_robust,
+        "dissolved": row.dissolved_text,
     }
+
+
+def onset_lines_payload(material_id: str, diagram: Diagram, current_density_ma_cm2: float = DEFAULT_CURRENT_DENSITY) -> list[dict]:
+    """The material's own hydrogen and oxygen onsets [V vs RHE] per medium with data, each over its medium's pH
+    band within the diagram's limits (``engine.kinetics``); none where the material has no published data."""
+    water, limits = diagram.water, diagram.limits
+    lines = []
+    for medium in kinetic_table().media:
+        ph = [max(medium.ph_min, limits.ph_min), min(medium.ph_max, limits.ph_max)]
+        if ph[0] >= ph[1]:
+            continue
+        found = kinetics(material_id, (ph[0], ph[1]), current_density_ma_cm2,
+                         oxygen_reversible_v_rhe=water.oxygen_intercept - water.hydrogen_intercept)
+        for gas, value in (("hydrogen", found.hydrogen_onset_v_rhe), ("oxygen", found.oxygen_onset_v_rhe)):
+            if value is not None:
+                lines.append({"material": material_id, "gas": gas, "medium": medium.name, "ph": ph,
+                              "v_rhe": round(value, DIGITS["potential"]),
+                              "current_density_ma_cm2": found.current_density_ma_cm2, "sources": list(found.sources)})
+    return lines
+
+
+def roles_payload(catalog: Catalog) -> list[dict]:
+    """Every electrode role: what it checks, its ranking rule in words and the citations behind it."""
+    rows = []
+    for role in roles().values():
+        keys = [*role.sources, *([role.criterion.source] if role.criterion else [])]
+        rows.append({"name": role.name, "title": role.title, "description": role.description, "rule": role.rule,
+                     "accept": list(role.accept), "needs_conduction": role.needs_conduction,
+                     "keeps_phase": role.keeps_phase,
+                     "citations": [key if key not in catalog.sources else citation(catalog, key)
+                                   for key in dict.fromkeys(keys)]})
+    return rows
+
+
+def kinetics_payload(kinetics) -> dict:
+    """A material's own hydrogen and oxygen onsets vs RHE [V] at a current density [mA cm^-2]; null where no data."""
+    onset = lambda v: None if v is None else round(v, DIGITS["potential"])  # noqa: E731
+    return {"current_density_ma_cm2": kinetics.current_density_ma_cm2,
+            "hydrogen_onset_v_rhe": onset(kinetics.hydrogen_onset_v_rhe),
+            "oxygen_onset_v_rhe": onset(kinetics.oxygen_onset_v_rhe), "sources": list(kinetics.sources)}
 
 
 def screen_payload(result: ScreenResult) -> dict:
@@ -231,7 +283,8 @@ def screen_payload(result: ScreenResult) -> dict:
 
 CSV_COLUMNS = ("rank", "material", "name", "element", "phase", "family", "verdict", "immunity", "passivation", "hydride",
                "corrosion", "instability_ev", "log10_dissolved", "margin_mv", "price_usd_per_kg", "price_year",
-               "hazards", "reason", "caution")
+               "hazards", "reason", "caution", "surface_phase", "surface_conduction", "hydrogen_onset_v_rhe", "oxygen_onset_v_rhe",
+               "current_density_ma_cm2", "verdict_probability", "order_robust", "dissolved", "notes")
 
 
 def csv_rows(result: dict) -> list[dict]:
@@ -241,5 +294,12 @@ def csv_rows(result: dict) -> list[dict]:
         flat = {key: row.get(key) for key in CSV_COLUMNS}
         flat.update(row["fractions"])
         flat["hazards"] = "; ".join(f"{h['species']}: {h['note']}" for h in row["hazards"])
+        surface, kinetics, robustness = row.get("surface") or {}, row.get("kinetics") or {}, row.get("robustness") or {}
+        flat.update(surface_phase=surface.get("phase"), surface_conduction=surface.get("conduction"),
+                    hydrogen_onset_v_rhe=kinetics.get("hydrogen_onset_v_rhe"),
+                    oxygen_onset_v_rhe=kinetics.get("oxygen_onset_v_rhe"),
+                    current_density_ma_cm2=kinetics.get("current_density_ma_cm2"),
+                    verdict_probability=robustness.get("verdict_probability"),
+                    notes="; ".join(f"{n['kind']}: {n['text']}" for n in row.get("notes") or []))
         rows.append(flat)
     return rows

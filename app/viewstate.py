@@ -18,7 +18,7 @@ from pydantic import BaseModel, ConfigDict, ValidationError
 
 from electrosieve.engine.catalog import Catalog
 from electrosieve.engine.errors import InputError
-from electrosieve.engine.ranking import DEFAULT_ORDER
+from electrosieve.engine.kinetics import DEFAULT_CURRENT_DENSITY
 from electrosieve.engine.screen import Scenario, make_scenario
 from electrosieve.engine.solution import Solution, make_solution
 
@@ -132,7 +132,8 @@ def checked_scenario(scenario: ScenarioIn, catalog: Catalog) -> Scenario:
 def cli_scenario(*, ph: str | None, potential: str, scale: str, activity: str, temperature: str, role: str,
                  accept: str | None, materials: str | None, family: str | None, rank_by: str | None,
                  weights: str | None, catalog: Catalog, electrolyte: str | None = None,
-                 ion_activity: list[str] | None = None, chloride: str | None = None) -> Scenario:
+                 ion_activity: list[str] | None = None, chloride: str | None = None,
+                 current_density: str = str(DEFAULT_CURRENT_DENSITY)) -> Scenario:
     """The scenario of ``electrosieve screen``'s flags (all text), checked by the engine; without ``--ph`` the
     ``--electrolyte`` recipe's pH is used."""
     accepted = parse_list(accept)
@@ -147,7 +148,8 @@ def cli_scenario(*, ph: str | None, potential: str, scale: str, activity: str, t
         role=role, accept=accepted, materials=parse_list(materials), family=family, rank_by=parse_list(rank_by),
         weights=weighed, catalog=catalog,
         electrolyte=electrolyte, ion_activities=parse_ion_activities(ion_activity, "--ion-activity"),
-        chloride=None if chloride is None else parse_number(chloride, "--chloride"))
+        chloride=None if chloride is None else parse_number(chloride, "--chloride"),
+        current_density=parse_number(current_density, "--current-density"))
 
 
 UNION_TAG = re.compile(r"^(float|int|str|bool|none|list\[.*\]|dict\[.*\]|literal\[.*\]|function-.*|constrained-.*)$")
@@ -178,7 +180,7 @@ def field_errors(error: ValidationError, where: str, rename: dict | None = None,
 
 SCENARIO_PARAMS = ("ph_low", "ph_high", "potential_low", "potential_high", "scale", "temperature", "activity",
                    "role", "accept", "pick", "family", "materials", "rank_by", "weights", "electrolyte",
-                   "ion_activities", "chloride")
+                   "ion_activities", "chloride", "current_density")
 LIST_PARAMS = ("accept", "materials", "compare")
 
 ENGINE_FIELD_TO_PARAM = {"ph": "ph_low", "potential": "potential_low", "materials": "materials"}
@@ -216,6 +218,7 @@ class ViewQuery(BaseModel):
     electrolyte: str = ""
     ion_activities: str = ""
     chloride: str = ""
+    current_density: str = ""
 
     @classmethod
     def from_params(cls, params) -> "ViewQuery":
@@ -254,11 +257,13 @@ class ViewQuery(BaseModel):
             temperature=_number_text(echo["temperature"]), activity=_number_text(echo["activity"]),
             role=echo["role"], accept=list(echo.get("accept") or []),
             pick="names" if materials else ("family" if family else "all"), family=family, materials=list(materials),
-            rank_by="" if list(rank_by) == list(DEFAULT_ORDER) else ",".join(rank_by),
+            rank_by=",".join(rank_by),
             weights=",".join(f"{k}:{_number_text(v)}" for k, v in (echo.get("weights") or {}).items()),
             electrolyte=echo.get("electrolyte") or "",
             ion_activities=",".join(f"{k}={_number_text(v)}" for k, v in (echo.get("ion_activities") or {}).items()),
             chloride="" if echo.get("chloride") is None else _number_text(echo["chloride"]),
+            current_density="" if echo.get("current_density", DEFAULT_CURRENT_DENSITY) == DEFAULT_CURRENT_DENSITY
+            else _number_text(echo["current_density"]),
         )
 
     def params(self, *, scenario_only: bool = False) -> list[tuple[str, str]]:
@@ -307,6 +312,7 @@ class ViewQuery(BaseModel):
             ion_activities = parse_ion_activities(self.ion_activities, "ion_activities")
         except InputError as error:
             errors.append(FieldError(loc=["query", "ion_activities"], msg=error.message))
+        current_density = number("current_density", required=False)
         weights = None
         if self.weights:
             try:
@@ -331,6 +337,7 @@ class ViewQuery(BaseModel):
             "rank_by": [k.strip().lower() for k in self.rank_by.split(",") if k.strip()] or None,
             "weights": weights,
             "electrolyte": self.electrolyte or None, "ion_activities": ion_activities, "chloride": chloride,
+            **({} if current_density is None else {"current_density": current_density}),
         }
         if ph_low is None:
             candidate["ph"] = None if ph_high is None else ph_high

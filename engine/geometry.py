@@ -161,8 +161,9 @@ def stack(polygons: list[np.ndarray], width: int) -> np.ndarray:
     return points
 
 
-def clip_stack(points: np.ndarray, alive: np.ndarray, a: float, b: float, c: float) -> tuple[np.ndarray, np.ndarray]:
-    """:func:`clip` of every polygon of a stack by the same half-plane a + b·x + c·y ≤ 0, all at once.
+def clip_stack(points: np.ndarray, alive: np.ndarray, a, b, c) -> tuple[np.ndarray, np.ndarray]:
+    """:func:`clip` of every polygon of a stack by the half-plane a + b·x + c·y ≤ 0, all at once: the same
+    half-plane for every row (numbers ``a``, ``b``, ``c``) or one per row (arrays of the stack's length).
 
     Each edge k contributes its start vertex when inside and its crossing point when it crosses the
     line (Sutherland & Hodgman 1974); the kept points move to the front of their row, which is padded
@@ -174,8 +175,10 @@ def clip_stack(points: np.ndarray, alive: np.ndarray, a: float, b: float, c: flo
     (2.0, True)
     """
     rows, width = points.shape[:2]
+    a, b, c = (np.asarray(v, dtype=float).reshape(-1, 1) if np.ndim(v) else float(v) for v in (a, b, c))
     values = a + b * points[..., 0] + c * points[..., 1]
-    inside = values <= EPS * max(1.0, abs(a), abs(b), abs(c))
+    scale = np.maximum(1.0, np.maximum(np.abs(a), np.maximum(np.abs(b), np.abs(c))))
+    inside = values <= EPS * scale
     following = np.roll(points, -1, axis=1)
     following_values = np.roll(values, -1, axis=1)
     crossing = inside != np.roll(inside, -1, axis=1)

@@ -9,11 +9,12 @@ the candidates (price on a log scale), lowest first.
 import math
 
 from .errors import InputError
+from .ordering import dissolved_words
 
 RANK_KEYS = {
     "unacceptable": "least window share outside the acceptable regions",
     "instability": "least free energy of the candidate's own phase above the stable state",
-    "dissolved": "least equilibrium dissolved metal",
+    "dissolved": "least equilibrium dissolved metal (unknown last)",
     "price": "lowest price per kg (unknown prices last)",
     "margin": "widest potential margin before an unacceptable region",
 }
@@ -63,7 +64,7 @@ def sort_value(row, key: str) -> float:
         return round(row.instability_ev, RESOLUTION[key])
     if key == "dissolved":
         value = row.log10_dissolved
-        return -math.inf if value is None else round(value, RESOLUTION[key])
+        return math.inf if value is None else round(value, RESOLUTION[key])  # unknown is never best
     if key == "price":
         price = row.price_usd_per_kg
         return math.inf if price is None else price
@@ -124,8 +125,6 @@ def reason(row) -> str:
         tail = f"{own} is up to {energy:.2f} eV per atom above the stable state"
     text = f"{where}; {tail}"
     dissolved = row.log10_dissolved
-    if dissolved is not None and dissolved >= 0:
-        text += "; somewhere in the window no solid holds the metal (equilibrium dissolved metal above 1 M)"
-    elif dissolved is not None and dissolved > -6 + 1e-9:
-        text += f"; dissolved metal up to 10^{dissolved:.1f} M"
+    if dissolved is not None and dissolved > -6 + 1e-9:
+        text += "; " + dissolved_words(dissolved)
     return text

@@ -2,9 +2,10 @@
 
 A scenario gives the pH (point or range), the potential (point or range) on a
 reference scale, the dissolved-ion activity, the temperature, the electrode's
-role and what counts as acceptable. Every candidate is judged on its element's
-exact diagram (``engine.metrics``) and ranked by a rule shown to the user
-(``engine.ranking``).
+role (``engine.roles``) and what counts as acceptable. Every candidate is judged on its
+element's exact diagram (``engine.metrics``), then for its role: surface conduction, kinetic
+onsets, robustness and notes (``engine.judgement``), and ranked by the role's rule or a rule
+the user gives (``engine.ranking``).
 """
 
 from collections import OrderedDict
@@ -17,19 +18,25 @@ from .chloride import pitting_caution
 from .diagram import Diagram, diagram
 from .domains import PlotLimits
 from .errors import InputError
-from .inputs import DEFAULT_ACTIVITY, check_activity, check_temperature
+from .inputs import DEFAULT_ACTIVITY, check_activity, check_number, check_temperature
+from .conduction import Surface
+from .judgement import Conditions, ElementState, Judgement, judge_all, order_holds, rank_key
+from .kinetics import CURRENT_DENSITY_RANGE, DEFAULT_CURRENT_DENSITY, Kinetics
 from .materials import FAMILIES, Material
 from .metrics import Piece, largest_gap, margin, overlays, region_fractions
-from .ranking import DEFAULT_ORDER, RANK_KEYS, check_order, check_weights, rank, reason
+from .notes import Note, element_notes
+from .ordering import dissolved_words, unknown_reason
+from .ranking import RANK_KEYS, check_order, check_weights, rank, reason
+from .robustness import Robustness
+from .roles import Role, check_role, roles
 from .solution import Solution, make_solution
 from .thermo import temperature_notes
 from .water import conditions_note
 from .window import OperatingWindow, operating_window
 
-ROLES = ("anode", "cathode")
+ROLES = tuple(roles())
+"""The electrode roles of ``data/roles.toml``; each role's accepted regions are its default ``accept``."""
 REGIONS = ("immunity", "passivation", "hydride", "corrosion")
-DEFAULT_ACCEPT = {"cathode": ("immunity",), "anode": ("immunity", "passivation")}
-"""Acceptable regions by role: a cathode must stay metallic; an anode may also carry a solid film (common practice)."""
 
 
 @dataclass(frozen=True)
@@ -50,26 +57,32 @@ class Scenario:
     accept: tuple[str, ...] = ()
     materials: tuple[str, ...] | None = None
     family: str | None = None
-    rank_by: tuple[str, ...] = DEFAULT_ORDER
+    rank_by: tuple[str, ...] = ()
+    """A ranking order the user chose; empty means the role's own rule (``engine.judgement.rank_key``)."""
     weights: dict = field(default_factory=dict)
     solution: Solution = Solution()
     """The electrolyte recipe, per-ion and ligand activities and the warnings they raised (``engine.solution``)."""
+    current_density_ma_cm2: float = DEFAULT_CURRENT_DENSITY
+    """Current density at which the kinetic onsets are read [mA cm^-2]."""
+
+    @property
+    def judged_role(self) -> Role:
+        """The role with the scenario's accepted regions."""
+        return replace(check_role(self.role), accept=self.accept)
 
 
 def make_scenario(*, ph=None, potential, scale: str = "SHE", activity=DEFAULT_ACTIVITY, temperature=25.0,
                   role: str = "anode", accept=None, materials=None, family=None, rank_by=None, weights=None,
                   catalog: Catalog | None = None, electrolyte: str | None = None, ion_activities=None,
-                  chloride=None) -> Scenario:
+                  chloride=None, current_density=DEFAULT_CURRENT_DENSITY) -> Scenario:
     """A checked :class:`Scenario`; every problem is an :class:`InputError` naming its field.
 
     Without ``ph`` the ``electrolyte`` recipe's computed pH at the temperature is used (a point).
     """
     catalog = catalog or default_catalog()
-    role = str(role).strip().lower()
-    if role not in ROLES:
-        raise InputError(f"role must be one of {', '.join(ROLES)} (given {role!r})", field="role")
+    chosen_role = check_role(role)
     if accept is None:
-        accept_tuple = DEFAULT_ACCEPT[role]
+        accept_tuple = chosen_role.accept
     else:
         accept_tuple = tuple(dict.fromkeys(str(a).strip().lower() for a in accept))
         if not accept_tuple:
@@ -98,9 +111,11 @@ def make_scenario(*, ph=None, potential, scale: str = "SHE", activity=DEFAULT_AC
     window = operating_window(catalog.scales, ph, potential, scale, temperature, PlotLimits())
     return Scenario(
         ph=window.ph, potential=window.potential, window=window, scale=window.scale, activity=check_activity(activity),
-        temperature=temperature, role=role, accept=accept_tuple, materials=ids, family=family,
-        rank_by=check_order(rank_by) if rank_by is not None else DEFAULT_ORDER,
+        temperature=temperature, role=chosen_role.name, accept=accept_tuple, materials=ids, family=family,
+        rank_by=check_order(rank_by) if rank_by else (),
         weights=check_weights(weights) if weights else {}, solution=solution,
+        current_density_ma_cm2=check_number(current_density, "current_density", *CURRENT_DENSITY_RANGE,
+                                            what=" mA cm^-2"),
     )
 
 
@@ -212,10 +227,25 @@ class ScreenRow:
     """(pH, E [V vs SHE]) of the window corner where it occurs."""
     hazards: tuple[Hazard, ...]
     reason: str = ""
-    """One line in plain words (``engine.ranking.reason``)."""
+    """One line in plain words (``engine.ranking.reason``), the role's reasons first."""
     rank: int = 0
     caution: str | None = None
     """Pitting in chloride, in plain words, when the window meets a passive region (``engine.chloride``)."""
+    surface: Surface | None = None
+    """The least conducting surface the window meets (it decides whether current passes)."""
+    kinetics: Kinetics | None = None
+    """The material's own hydrogen and oxygen onsets vs RHE at the scenario's current density."""
+    robustness: Robustness | None = None
+    """How often the verdict holds when the Gibbs energies vary within their uncertainties."""
+    notes: tuple[Note, ...] = ()
+    """Kinetic, practice and caution notes where thermodynamics alone misleads."""
+    acceptable: bool | None = None
+    """The role's judgement (``engine.judgement``): stable, conducting and unchanged where the role asks it."""
+    order_robust: bool | None = None
+    """False when this row's place above the next one could swap within the data's uncertainties; None for the last."""
+    dissolved_unknown: bool = False
+    """True when the element's equilibrium figure counts species a kinetic note sets aside (carbon's CO2), or the
+    data hold no dissolved species: the dissolved metal is unknown, never best."""
 
     @property
     def id(self) -> str:
@@ -223,7 +253,15 @@ class ScreenRow:
 
     @property
     def verdict(self) -> str:
-        return self.judged.verdict
+        """The element's verdict, overruled by the role's judgement: a blocking film or a changed phase rejects,
+        a kinetically waived species does not count."""
+        if self.acceptable is None:
+            return self.judged.verdict
+        if self.acceptable:
+            return VERDICT_WORDS[0]
+        if self.judged.verdict == VERDICT_WORDS[1] and (self.surface is None or self.surface.passes_current):
+            return VERDICT_WORDS[1]
+        return VERDICT_WORDS[2]
 
     @property
     def unacceptable_fraction(self) -> float:
@@ -231,7 +269,8 @@ class ScreenRow:
 
     @property
     def log10_dissolved(self) -> float | None:
-        return self.judged.log10_dissolved
+        """Largest equilibrium dissolved metal over the window [log10 mol/kg]; None where unknown."""
+        return None if self.dissolved_unknown else self.judged.log10_dissolved
 
     @property
     def margin_v(self) -> float:
@@ -240,6 +279,13 @@ class ScreenRow:
     @property
     def price_usd_per_kg(self) -> float | None:
         return self.material.price_usd_per_kg
+
+    @property
+    def dissolved_text(self) -> str:
+        """The dissolved metal in words: "dissolves freely (> 1 M)" above 1 M; "unknown" and why where unknown."""
+        if self.dissolved_unknown and self.judged.log10_dissolved is not None:
+            return unknown_reason("dissolved metal", "the equilibrium figure counts species that form too slowly to matter")
+        return dissolved_words(self.log10_dissolved, self.material.element)
 
 
 @dataclass(frozen=True)
@@ -358,7 +404,51 @@ def rule_text(scenario: Scenario) -> str:
     if scenario.weights:
         parts = [f"{weight:g} × {key}" for key, weight in scenario.weights.items()]
         return "lowest weighted score first: " + " + ".join(parts) + " (each key scaled 0-1 across candidates)"
+    if not scenario.rank_by:
+        role = scenario.judged_role
+        return f"Ranked as {_article(role.title)} {role.title}: {role.rule}"
     return "Ranked by " + ", then ".join(RANK_KEYS[key] for key in scenario.rank_by) + "."
+
+
+def _article(words: str) -> str:
+    return "an" if words[:1].lower() in "aeiou" else "a"
+
+
+def judge_rows(rows: list[ScreenRow], scenario: Scenario, catalog: Catalog,
+               verdicts: dict[str, ElementVerdict]) -> list[tuple[ScreenRow, Judgement]]:
+    """Each row judged for the scenario's role (``engine.judgement.judge_all``, robustness in one pass), its
+    surface, kinetics, robustness, notes and acceptability filled in and the role's reasons put first."""
+    states = {element: ElementState.of(v.diagram.planes, v.pieces,
+                                       None if catalog.lacks_dissolved(element) else v.log10_dissolved,
+                                       element_notes(catalog, element))
+              for element, v in verdicts.items()}
+    window = scenario.window
+    conditions = Conditions(window.vertices, window.ph, next(iter(verdicts.values())).diagram.water,
+                            scenario.current_density_ma_cm2)
+    judgements = judge_all([row.material for row in rows], scenario.judged_role, states, conditions)
+    judged = []
+    for row, j in zip(rows, judgements):
+        row = replace(row, surface=j.surface, kinetics=j.kinetics, robustness=j.robustness, notes=j.notes,
+                      acceptable=j.acceptable, dissolved_unknown=j.log10_dissolved is None)
+        said = dissolved_words(row.log10_dissolved) if row.log10_dissolved is not None else None
+        reasons = [text for text in j.reasons if text != said]  # the row's own line says it
+        judged.append((replace(row, reason="; ".join([*reasons, reason(row)])), j))
+    return judged
+
+
+def role_order(judged: list[tuple[ScreenRow, Judgement]], role: Role) -> list[ScreenRow]:
+    """Rows in the role's order (``engine.judgement.rank_key``); after the acceptable ones, partly acceptable
+    before rejected, the least unacceptable share of the window first. Each row's ``order_robust`` says whether
+    its place above the next one holds."""
+    def key(pair):
+        row, judgement = pair
+        first, *rest = rank_key(judgement, role)
+        return (first, VERDICT_WORDS.index(row.verdict), 0.0 if judgement.acceptable else round(row.unacceptable_fraction, 9),
+                *rest)
+
+    ordered = sorted(judged, key=key)
+    return [replace(row, order_robust=order_holds(j, below[1], role) if below else None)
+            for (row, j), below in zip(ordered, [*ordered[1:], None])]
 
 
 def screen(scenario: Scenario, catalog: Catalog | None = None) -> ScreenResult:
@@ -368,7 +458,11 @@ def screen(scenario: Scenario, catalog: Catalog | None = None) -> ScreenResult:
     verdicts = judge_elements(catalog, scenario, list(dict.fromkeys(m.element for m in chosen)))
     chloride = scenario.solution.chloride
     rows = [screen_material(m, scenario.window, verdicts[m.element], chloride) for m in chosen]
-    ranked = rank(rows, scenario.rank_by, scenario.weights or None)
+    judged = judge_rows(rows, scenario, catalog, verdicts)
+    if scenario.rank_by or scenario.weights:
+        ranked = rank([row for row, _ in judged], scenario.rank_by, scenario.weights or None)
+    else:
+        ranked = role_order(judged, scenario.judged_role)
     water = next(iter(verdicts.values())).diagram.water
     return ScreenResult(
         scenario=scenario, rule=rule_text(scenario),

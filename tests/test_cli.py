@@ -155,8 +155,33 @@ def test_screen_csv(capsys):
 def test_screen_human_table_shows_rule_and_cautions(capsys):
     code, out, _ = run(capsys, "screen", "--ph", "7", "--potential", "0.2", "--materials", "Pt,Zn,Cr")
     assert code == 0
-    assert "Ranked by least window share outside" in " ".join(out.split())
+    words = " ".join(out.split())
+    assert "Ranked as an anode (generic): acceptable materials first" in words
     assert "Cautions" in out
+    for heading in ("verdict", "surface", "p", "log c"):  # verdict, surface conduction and robustness, briefly
+        assert heading in out
+
+
+def test_screen_by_role_shows_the_role_criterion_and_fits_80_columns(capsys):
+    code, out, _ = run(capsys, "screen", "--ph", "0:1", "--potential=-0.1:0", "--scale", "RHE", "--role", "her-cathode",
+                       "--materials", "Pt,Hg,Ni", "--current-density", "10")
+    assert code == 0
+    assert "H2 V" in out and "vs RHE at 10 mA cm^-2" in " ".join(out.split())
+    assert max(len(line) for line in out.splitlines()) <= 80
+
+
+def test_screen_role_help_lists_every_role(capsys):
+    from electrosieve.engine.roles import roles
+
+    with pytest.raises(SystemExit):
+        main(["screen", "--help"])
+    joined = "".join(capsys.readouterr().out.split())  # argparse wraps help lines at hyphens
+    assert all(name in joined for name in roles())
+
+
+def test_screen_unknown_role_names_the_field(capsys):
+    code, _, err = run(capsys, "screen", "--ph", "7", "--potential", "0", "--role", "anodes")
+    assert code == 2 and "role must be one of" in err and "oer-anode" in err
 
 
 def test_materials_and_sources_json(capsys):

@@ -46,3 +46,18 @@ def test_every_module_is_in_the_layout_table():
     modules = [p for p in (ROOT / "engine").glob("*.py") if p.name != "__init__.py"]
     missing = [p.name for p in modules if f"engine/{p.name}" not in DOCS]
     assert not missing, f"engine modules missing from DEVELOPERS.md: {missing}"
+
+
+def test_every_role_is_explained_with_its_sources_in_the_readme_and_the_docs_page(client):
+    from electrosieve.engine.catalog import default_catalog
+    from electrosieve.engine.roles import roles
+
+    readme = (ROOT / "README.md").read_text(encoding="utf-8")
+    page = client.get("/docs").text
+    catalog = default_catalog()
+    for role in roles().values():
+        assert f"| `{role.name}` |" in readme, role.name
+        assert f'id="role-{role.name}"' in page, role.name
+        for key in (*role.sources, *([role.criterion.source] if role.criterion else [])):
+            shown = "common practice" if key not in catalog.sources else catalog.sources[key].authors.split(",")[0]
+            assert shown in readme and shown in page, (role.name, key)

@@ -17,7 +17,8 @@ MODULES = {path.stem: path for path in sorted(ENGINE.glob("*.py")) if path.stem 
 FORBIDDEN = ("electrosieve.app", "fastapi", "starlette", "plotly", "jinja2", "uvicorn", "sqlalchemy")
 """Packages the engine never imports: the app and the web and plotting libraries."""
 
-DATA_READERS = {"activity", "alloydata", "catalog", "datafiles", "electrolyte", "materials"}
+DATA_READERS = {"activity", "alloydata", "catalog", "conduction", "datafiles", "electrolyte", "kinetics", "materials",
+                "notes", "robustness", "roles"}
 """The modules that read and validate ``data/`` files; only they may use pydantic (a parsing library, no web)."""
 
 OPTIONAL_HEAVY = ()

@@ -125,7 +125,8 @@ def test_view_query_round_trips_an_engine_scenario():
             "rank_by": ["price", "unacceptable"], "weights": {}}
     scenario, errors = ViewQuery.from_scenario(echo).scenario_in()
     assert not errors
-    assert scenario.model_dump() == {**echo, "weights": None, "electrolyte": None, "ion_activities": None, "chloride": None}
+    assert scenario.model_dump() == {**echo, "weights": None, "electrolyte": None, "ion_activities": None, "chloride": None,
+                                      "current_density": 1.0}
 
 
 def test_view_query_round_trips_a_recipe_ions_and_chloride():
@@ -137,7 +138,9 @@ def test_view_query_round_trips_a_recipe_ions_and_chloride():
     assert ("ion_activities", "Cu^2+=0.1") in view.params(scenario_only=True)
     scenario, errors = view.scenario_in()
     assert not errors
-    assert scenario.model_dump() == {**echo, "weights": None}
+    assert scenario.model_dump() == {**echo, "weights": None, "current_density": 1.0}
+    with_density = ViewQuery.from_scenario({**echo, "current_density": 10.0})
+    assert with_density.current_density == "10" and with_density.scenario_in()[0].current_density == 10.0
 
 
 def test_screen_page_picks_candidates_by_family_and_by_name(client):

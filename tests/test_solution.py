@@ -150,9 +150,9 @@ def test_chlor_alkali_titanium_and_iridium_oxide_hold_as_dimensionally_stable_an
     # volatile RuO4 is flagged
     result = screen(make_scenario(**CHLOR_ALKALI))
     rows = rows_by_id(result)
-    for ti in ("Ti", "TiO2"):
-        assert rows[ti].verdict == "acceptable" and rows[ti].judged.fractions["passivation"] == pytest.approx(1.0)
-        assert "resists" in rows[ti].caution
+    for ti in ("Ti", "TiO2"):  # survives as a passive substrate, but its insulating film is no anode surface
+        assert rows[ti].judged.fractions["passivation"] == pytest.approx(1.0) and "resists" in rows[ti].caution
+        assert rows[ti].verdict == "rejected" and rows[ti].surface.conduction == "insulator"
     assert rows["IrO2"].judged.fractions["passivation"] > 0.8
     assert "RuO4" in {h.species for h in rows["RuO2"].hazards}
     assert any("26 wt% NaCl" in w and "pH 2 to 4 was given" in w for w in result.warnings)

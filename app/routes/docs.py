@@ -3,7 +3,8 @@
 from fastapi import APIRouter, Request
 from fastapi.responses import HTMLResponse
 
-from .common import render
+from ..payloads import roles_payload
+from .common import get_catalog, render
 
 router = APIRouter(tags=["pages"])
 
@@ -48,4 +49,5 @@ def reference(openapi: dict) -> list[dict]:
 @router.get("/docs", response_class=HTMLResponse, response_model=None, include_in_schema=False)
 def docs_html(request: Request):
     entries = reference(request.app.openapi())
-    return render(request, "docs.html", {"entries": entries}, json_twin="/openapi.json")
+    return render(request, "docs.html", {"entries": entries, "roles": roles_payload(get_catalog(request))},
+                  json_twin="/openapi.json")
