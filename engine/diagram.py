@@ -1,8 +1,10 @@
 """The E–pH diagram of one element: domains, boundaries and water lines, and what is stable at a point.
 
 This is the engine's front door: it checks the inputs, builds the free-energy
-planes (``planes``), computes the exact domains (``domains``) and caches the
-result per (element, activity, temperature, limits).
+planes (``planes``), computes the exact domains (``domains``, all elements in one
+pass by ``envelope``) and caches the diagrams of every element of the catalog per
+(activity, temperature, limits): the first question under new conditions answers
+every element, since a screen asks about them all.
 """
 
 from dataclasses import dataclass
@@ -13,6 +15,7 @@ import numpy as np
 from .catalog import Catalog, ElementSystem, default_catalog
 from .constants import ZERO_CELSIUS
 from .domains import Boundary, Domain, PlotLimits, boundaries, stability_domains, stable_index_at
+from .envelope import Job, domains_of
 from .errors import InputError
 from .geometry import stack
 from .inputs import DEFAULT_ACTIVITY, check_activity, check_number, check_temperature
@@ -83,22 +86,39 @@ def diagram(element: str, activity: float = DEFAULT_ACTIVITY, temperature_c: flo
     """
     catalog = catalog or default_catalog()
     system = catalog.system(element)
-    return _cached_diagram(catalog, system.element, check_activity(activity),
-                           check_temperature(temperature_c), check_limits(limits))
+    return _catalog_diagrams(catalog, check_activity(activity), check_temperature(temperature_c),
+                             check_limits(limits))[system.element]
 
 
-@lru_cache(maxsize=512)
-def _cached_diagram(catalog: Catalog, element: str, activity: float, temperature_c: float,
-                    limits: PlotLimits) -> Diagram:
-    system = catalog.systems[element]
-    planes = planes_for(system, catalog, activity, temperature_c)
-    domains = stability_domains(planes, limits)
+CONDITIONS = 16
+"""How many (catalog, activity, temperature, limits) conditions keep their diagrams, least recently used dropped
+first. One condition holds every element's diagram (about 0.5 MB for the built-in catalog, see
+``bench/memory.py``), so the diagram cache stays under about 8 MB."""
+
+
+@lru_cache(maxsize=CONDITIONS)
+def _catalog_diagrams(catalog: Catalog, activity: float, temperature_c: float, limits: PlotLimits) -> dict[str, Diagram]:
+    return build_diagrams(catalog, tuple(catalog.systems), activity, temperature_c, limits)
+
+
+def build_diagrams(catalog: Catalog, elements: tuple[str, ...], activity: float, temperature_c: float,
+                   limits: PlotLimits) -> dict[str, Diagram]:
+    """Uncached diagrams of ``elements`` (checked inputs), every domain and solid domain found in one pass
+    (``engine.envelope``: the same polygons :func:`engine.domains.stability_domains` finds)."""
     temperature_k = temperature_c + ZERO_CELSIUS
-    return Diagram(
-        element=element, activity=activity, temperature_c=temperature_c, limits=limits, planes=planes,
-        domains=tuple(domains), boundaries=tuple(boundaries(planes, domains)),
-        water=water_lines(water_gibbs(catalog, temperature_k), temperature_k),
-    )
+    water = water_lines(water_gibbs(catalog, temperature_k), temperature_k)
+    planes = [planes_for(catalog.systems[e], catalog, activity, temperature_c) for e in elements]
+    found = domains_of([Job(p, limits) for p in planes] + [Job(p, limits, ~p.dissolved) for p in planes])
+    result = {}
+    for k, (element, plane) in enumerate(zip(elements, planes)):
+        domains = [Domain(index=i, species=plane.species[i], vertices=v, neighbours=n) for i, v, n in found[k]]
+        solids = tuple(Domain(index=i, species=plane.species[i], vertices=v, neighbours=n)
+                       for i, v, n in found[len(elements) + k])
+        made = Diagram(element=element, activity=activity, temperature_c=temperature_c, limits=limits,
+                       planes=plane, domains=tuple(domains), boundaries=tuple(boundaries(plane, domains)), water=water)
+        made.__dict__["solid_domains"] = solids  # already found: fills the cached property
+        result[element] = made
+    return result
 
 
 def check_point(limits: PlotLimits, ph, potential) -> tuple[float, float]:
