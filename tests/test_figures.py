@@ -29,8 +29,10 @@ def test_plain_figure_passes_through_plotly_unchanged(element, axis, temperature
 def test_diagram_views_are_reused_and_bounded(monkeypatch):
     diagramviews.clear()
     first = diagramviews.diagram_view(CATALOG, "Zn", 1e-6, 25.0, axis="SHE", operating_window=WINDOW)
-    assert diagramviews.diagram_view(CATALOG, "Zn", 1e-6, 25.0, axis="SHE", operating_window=WINDOW) is first
-    assert diagramviews.diagram_view(CATALOG, "Zn", 1e-6, 25.0, axis="RHE", operating_window=WINDOW) is not first
+    again = diagramviews.diagram_view(CATALOG, "Zn", 1e-6, 25.0, axis="SHE", operating_window=WINDOW)
+    assert again[0] is first[0] and again[1] is first[1]
+    other = diagramviews.diagram_view(CATALOG, "Zn", 1e-6, 25.0, axis="RHE", operating_window=WINDOW)
+    assert other[1] is not first[1] and other[1]["layout"]["yaxis"]["title"]["text"] == "E / V vs RHE"
     monkeypatch.setattr(diagramviews, "SIZE", 3)
     for activity in (1e-2, 1e-3, 1e-4, 1e-5):
         diagramviews.diagram_view(CATALOG, "Zn", activity, 25.0, axis="SHE")
