@@ -8,6 +8,7 @@ from pathlib import Path
 sys.path.insert(0, str(Path(__file__).resolve().parent))
 
 from engine_bench import engine_figures  # noqa: E402
+from memory import memory_figures  # noqa: E402
 from service_bench import service_figures  # noqa: E402
 from temperature import temperature_figures  # noqa: E402
 from web_bench import web_figures  # noqa: E402
@@ -21,7 +22,7 @@ def machine() -> dict:
 
 def main() -> None:
     figures = {"machine": machine(), "engine": engine_figures(), "temperature": temperature_figures(),
-               "web": web_figures(), "service": service_figures()}
+               "web": web_figures(), "service": service_figures(), "memory": memory_figures()}
     print(json.dumps(figures, indent=2))
 
 
