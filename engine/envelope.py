@@ -64,7 +64,13 @@ def domains_of(jobs: list[Job]) -> list[list[tuple[int, np.ndarray, np.ndarray]]
     boxes = np.array([rectangle(lim.ph_min, lim.ph_max, lim.e_min, lim.e_max)[0] for lim in limits])[owners]
     floors = np.array([MIN_DOMAIN_AREA * lim.area for lim in limits])[owners]
     stack = _Stack(boxes, np.full(boxes.shape[:2], -1, dtype=int), np.full(len(boxes), 4))
-    open_rows = np.arange(len(boxes))
+    # A species above one competitor by more than the tolerance at all four corners is above it everywhere in the
+    # rectangle (Φ_i − Φ_j is linear), so no clipping order can leave it a vertex: its domain is empty.
+    corners = d_off[:, None, :] + d_ph[:, None, :] * boxes[..., :1] + d_e[:, None, :] * boxes[..., 1:]
+    scale = EPS * np.maximum(np.maximum(1.0, np.abs(d_off)), np.maximum(np.abs(d_ph), np.abs(d_e)))
+    above = ((corners.min(axis=1) > scale) & ~done).any(axis=1)
+    stack.count[above] = 0
+    open_rows = np.flatnonzero(~above)
     while len(open_rows):
         points = stack.points[open_rows]
         x, y = points[..., :1], points[..., 1:]
