@@ -1,7 +1,6 @@
 """The comparison: two to four candidates' diagrams side by side under one operating window (the compare page's data)."""
 
 from electrosieve.engine.catalog import Catalog
-from electrosieve.engine.diagram import diagram
 from electrosieve.engine.errors import ElectrosieveError
 from electrosieve.engine.scales import canonical_scale
 from electrosieve.engine.screen import material_id
@@ -10,10 +9,10 @@ from electrosieve.engine.solution import make_solution
 from . import urls
 from .cautions import CAUTIONS
 from .errors import Unprocessable, engine_error
-from .figures import figure_dict
+from .diagramviews import diagram_view
 from .models import CompareDiagram, ComparePage, FieldError
 from .pages import form_choices, screen_result
-from .payloads import citation, diagram_payload, sources_payload
+from .payloads import citation, sources_payload
 from .viewstate import ENGINE_FIELD_TO_PARAM, ViewQuery
 
 COMPARE_RANGE = (2, 4)
@@ -61,12 +60,11 @@ def compare_page_data(view: ViewQuery, catalog: Catalog) -> ComparePage:
                                      chloride=scenario["chloride"])
             for mid in ids:
                 material = catalog.materials[mid]
-                payload = diagram_payload(diagram(material.element, scenario["activity"], scenario["temperature"],
-                                                  catalog=catalog, **solution.diagram_arguments()), catalog, solution)
-                figure = figure_dict(payload, scales=catalog.scales, scale_id=axis,
-                                     operating_window=result["window"]["vertices_she"],
-                                     title=f"{material.name}: {material.element}, {scenario['temperature']:g} °C, "
-                                           f"dissolved at {scenario['activity']:g}")
+                payload, figure = diagram_view(
+                    catalog, material.element, scenario["activity"], scenario["temperature"], axis=axis,
+                    operating_window=result["window"]["vertices_she"], solution=solution,
+                    title=f"{material.name}: {material.element}, {scenario['temperature']:g} °C, "
+                          f"dissolved at {scenario['activity']:g}")
                 diagrams.append(CompareDiagram(
                     material=mid, name=material.name, element=material.element, row=rows.get(mid), diagram=payload,
                     figure=figure, links={"material": urls.material_page(mid, activity=scenario["activity"],

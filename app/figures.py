@@ -6,7 +6,6 @@ so nothing depends on colour alone.
 """
 
 import itertools
-import json
 import re
 
 import numpy as np
@@ -145,10 +144,11 @@ def scale_label(scales: dict, scale_id: str) -> str:
     return scales[scale_id].name if scale_id in scales else scale_id
 
 
-def diagram_figure(payload: dict, *, operating_window: list[list[float]] | None = None,
-                   title: str | None = None, potential_offset: float = 0.0, scale: str = "SHE",
-                   offset_slope: float = 0.0, onsets: list[dict] | None = None) -> go.Figure:
-    """A figure from a diagram payload (``app.payloads.diagram_payload``).
+def diagram_spec(payload: dict, *, operating_window: list[list[float]] | None = None,
+                 title: str | None = None, potential_offset: float = 0.0, scale: str = "SHE",
+                 offset_slope: float = 0.0, onsets: list[dict] | None = None) -> dict:
+    """A figure from a diagram payload (``app.payloads.diagram_payload``) as plain JSON: ``data`` (traces) and
+    ``layout``, in plotly.js's own schema, built without plotly's figure objects.
 
     The potential axis is shown on ``scale`` (a label, see :func:`scale_label`):
     E_scale = E_SHE − potential_offset − offset_slope·pH (offset_slope is the Nernst slope for the RHE,
@@ -159,7 +159,7 @@ def diagram_figure(payload: dict, *, operating_window: list[list[float]] | None 
     def on_scale(ph: float, e: float) -> float:
         return e - potential_offset + offset_slope * ph
 
-    figure = go.Figure()
+    data: list[dict] = []
     shown_regions: set[str] = set()
     ph_range = payload["limits"]["ph"]
     unit = f"V vs {scale}"
@@ -169,59 +169,67 @@ def diagram_figure(payload: dict, *, operating_window: list[list[float]] | None 
         xs = [p[0] for p in domain["polygon"]] + [domain["polygon"][0][0]]
         ys = [on_scale(*p) for p in domain["polygon"]] + [on_scale(*domain["polygon"][0])]
         shaped.append({**domain, "polygon": list(zip(xs[:-1], ys[:-1]))})
-        figure.add_trace(go.Scatter(
-            x=xs, y=ys, mode="lines", fill="toself", fillcolor=style["fill"],
-            line={"color": "rgba(29, 38, 43, 0.55)", "width": 0.8}, name=domain["region"],
-            legendgroup=domain["region"], showlegend=domain["region"] not in shown_regions,
-            hoveron="fills", text=f"{domain['formula']} ({domain['phase']}): {domain['region']}", hoverinfo="text",
-        ))
+        data.append({
+            "fill": "toself", "fillcolor": style["fill"], "hoverinfo": "text", "hoveron": "fills",
+            "legendgroup": domain["region"], "line": {"color": "rgba(29, 38, 43, 0.55)", "width": 0.8},
+            "mode": "lines", "name": domain["region"], "showlegend": domain["region"] not in shown_regions,
+            "text": f"{domain['formula']} ({domain['phase']}): {domain['region']}", "x": xs, "y": ys,
+            "type": "scatter"})
         shown_regions.add(domain["region"])
     e_all = [y for d in shaped for _, y in d["polygon"]] or [0.0, 1.0]
     e_view = [min(e_all), max(e_all)]
-    for label, domain in zip(place_labels(shaped, ph_range, e_view), shaped):
-        if label["text"]:  # on a patch of its own fill, so a water line under it does not strike it through
-            figure.add_annotation(x=label["x"], y=label["y"], text=label["text"], showarrow=False,
-                                  font={"size": 12, "color": INK}, bgcolor=REGION_STYLE[domain["region"]]["fill"],
-                                  borderpad=1)
+    annotations = [  # each on a patch of its own fill, so a water line under it does not strike it through
+        {"bgcolor": REGION_STYLE[domain["region"]]["fill"], "borderpad": 1, "font": {"color": INK, "size": 12},
+         "showarrow": False, "text": label["text"], "x": label["x"], "y": label["y"]}
+        for label, domain in zip(place_labels(shaped, ph_range, e_view), shaped) if label["text"]]
     for key, style in WATER_STYLE.items():
         line = payload["water"][key]
-        figure.add_trace(go.Scatter(
-            x=ph_range, y=[on_scale(ph, line["intercept"] + line["slope"] * ph) for ph in ph_range],
-            mode="lines", line=style["line"], name=style["name"],
-            hovertemplate=f"{style['name']}<br>pH %{{x:.2f}}, E %{{y:.3f}} {unit}<extra></extra>",
-        ))
+        data.append({
+            "hovertemplate": f"{style['name']}<br>pH %{{x:.2f}}, E %{{y:.3f}} {unit}<extra></extra>",
+            "line": dict(style["line"]), "mode": "lines", "name": style["name"], "x": list(ph_range),
+            "y": [on_scale(ph, line["intercept"] + line["slope"] * ph) for ph in ph_range], "type": "scatter"})
     hydrogen = payload["water"]["hydrogen"]
     for onset in onsets or []:
         style = ONSET_STYLE[onset["gas"]]
         name = (f"{'H₂' if onset['gas'] == 'hydrogen' else 'O₂'} onset on {onset['material']}, "
                 f"{onset['current_density_ma_cm2']:g} mA cm⁻² ({onset['medium']})")
-        figure.add_trace(go.Scatter(
-            x=onset["ph"], y=[on_scale(ph, onset["v_rhe"] + hydrogen["intercept"] + hydrogen["slope"] * ph)
-                              for ph in onset["ph"]],
-            mode="lines", line=style, name=name,
-            hovertemplate=f"{name}: {onset['v_rhe']:.2f} V vs RHE<br>pH %{{x:.2f}}, E %{{y:.3f}} {unit}<extra></extra>"))
+        data.append({
+            "hovertemplate": f"{name}: {onset['v_rhe']:.2f} V vs RHE<br>pH %{{x:.2f}}, E %{{y:.3f}} {unit}<extra></extra>",
+            "line": dict(style), "mode": "lines", "name": name, "x": list(onset["ph"]),
+            "y": [on_scale(ph, onset["v_rhe"] + hydrogen["intercept"] + hydrogen["slope"] * ph) for ph in onset["ph"]],
+            "type": "scatter"})
     if operating_window:
-        xs = [p[0] for p in operating_window] + [operating_window[0][0]]
-        ys = [on_scale(*p) for p in operating_window] + [on_scale(*operating_window[0])]
-        figure.add_trace(go.Scatter(
-            x=xs, y=ys, mode="lines+markers", line=WINDOW_STYLE, fill="toself", fillcolor=WINDOW_FILL,
-            marker={"size": 6, "symbol": "diamond"}, name="operating window", hoveron="points+fills",
-            hovertemplate=f"operating window corner<br>pH %{{x:.2f}}, E %{{y:.3f}} {unit}<extra></extra>"))
+        data.append({
+            "fill": "toself", "fillcolor": WINDOW_FILL,
+            "hovertemplate": f"operating window corner<br>pH %{{x:.2f}}, E %{{y:.3f}} {unit}<extra></extra>",
+            "hoveron": "points+fills", "line": dict(WINDOW_STYLE), "marker": {"size": 6, "symbol": "diamond"},
+            "mode": "lines+markers", "name": "operating window",
+            "x": [p[0] for p in operating_window] + [operating_window[0][0]],
+            "y": [on_scale(*p) for p in operating_window] + [on_scale(*operating_window[0])], "type": "scatter"})
     e_range = payload["limits"]["potential"]
-    figure.update_layout(
-        title={"text": title or f"{payload['element']} · dissolved species at {payload['activity']:g} · "
-                                f"{payload['temperature_c']:g} °C", "x": 0.01, "xanchor": "left",
-               "y": 0.985, "yanchor": "top", "font": {"size": 14}},
-        xaxis={"title": {"text": "pH"}, "range": ph_range, "zeroline": False, "hoverformat": ".2f"},
-        yaxis={"title": {"text": f"E / {unit}"}, "zeroline": False, "hoverformat": ".3f",
-               "range": None if offset_slope else [e_range[0] - potential_offset, e_range[1] - potential_offset]},
-        template="simple_white", font={"family": FONT, "color": INK},
-        legend={"orientation": "h", "x": 0, "xanchor": "left", "xref": "container", "y": 0, "yanchor": "bottom",
-                "yref": "container", "font": {"size": 11}, "bgcolor": "rgba(255,255,255,0)"},
-        margin={"l": 64, "r": 16, "t": 40, "b": 100},
-        hoverlabel={"font": {"family": FONT}},
-    )
-    return figure
+    yaxis = {"title": {"text": f"E / {unit}"}, "zeroline": False, "hoverformat": ".3f"}
+    if not offset_slope:
+        yaxis["range"] = [e_range[0] - potential_offset, e_range[1] - potential_offset]
+    layout = {
+        "template": "simple_white",
+        **({"annotations": annotations} if annotations else {}),
+        "title": {"text": title or f"{payload['element']} · dissolved species at {payload['activity']:g} · "
+                                   f"{payload['temperature_c']:g} °C", "x": 0.01, "xanchor": "left",
+                  "y": 0.985, "yanchor": "top", "font": {"size": 14}},
+        "xaxis": {"title": {"text": "pH"}, "range": list(ph_range), "zeroline": False, "hoverformat": ".2f"},
+        "yaxis": yaxis,
+        "font": {"family": FONT, "color": INK},
+        "legend": {"orientation": "h", "x": 0, "xanchor": "left", "xref": "container", "y": 0, "yanchor": "bottom",
+                   "yref": "container", "font": {"size": 11}, "bgcolor": "rgba(255,255,255,0)"},
+        "margin": {"l": 64, "r": 16, "t": 40, "b": 100},
+        "hoverlabel": {"font": {"family": FONT}},
+    }
+    return {"data": data, "layout": layout}
+
+
+def diagram_figure(payload: dict, **options) -> go.Figure:
+    """:func:`diagram_spec` as a plotly figure (for writing HTML, SVG or PNG files); same options."""
+    return go.Figure(diagram_spec(payload, **options))
 
 
 def write_figure(figure: go.Figure, path: str) -> None:
@@ -255,9 +263,10 @@ def figure_dict(payload: dict, *, scales: dict, scale_id: str = "SHE", operating
                 title: str | None = None, onsets: list[dict] | None = None) -> dict:
     """The figure of a diagram payload as plain JSON (``data`` and ``layout``) for plotly.js in the page."""
     offset, slope = axis_offsets(scales, scale_id, payload["temperature_c"])
-    figure = diagram_figure(payload, operating_window=operating_window, title=title, potential_offset=offset,
-                            scale=scale_label(scales, scale_id), offset_slope=slope, onsets=onsets)
-    figure.update_layout(template=None, plot_bgcolor="#ffffff", paper_bgcolor="#ffffff",
-                         xaxis={"showline": True, "linecolor": "#444", "ticks": "outside", "mirror": True},
-                         yaxis={"showline": True, "linecolor": "#444", "ticks": "outside", "mirror": True})
-    return json.loads(figure.to_json())
+    figure = diagram_spec(payload, operating_window=operating_window, title=title, potential_offset=offset,
+                          scale=scale_label(scales, scale_id), offset_slope=slope, onsets=onsets)
+    layout = figure["layout"]
+    layout.update(template={}, plot_bgcolor="#ffffff", paper_bgcolor="#ffffff")
+    for axis in ("xaxis", "yaxis"):
+        layout[axis].update(showline=True, linecolor="#444", ticks="outside", mirror=True)
+    return figure

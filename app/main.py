@@ -6,36 +6,25 @@ time: the catalog and the database are made on first use.
 """
 
 from contextlib import asynccontextmanager
-from importlib import resources
-from pathlib import Path
 
-import plotly
 from fastapi import FastAPI
 from fastapi.exceptions import RequestValidationError
 from fastapi.responses import FileResponse, Response
-from fastapi.staticfiles import StaticFiles
 from sqlalchemy.exc import SQLAlchemyError
 from starlette.exceptions import HTTPException as StarletteHTTPException
+from starlette.middleware.gzip import GZipMiddleware
 
 from electrosieve.engine.catalog import Catalog
 
 from .contract import tighten
 from .overload import HeavyLimit, SaveRateLimit
+from . import assets, urls
 from .routes import api, compare, docs, health, materials, screen, shortlists
 from .routes.common import AppState
 from .routes.http import (BodyLimit, HeadAsGet, RelativeRedirects, RequestLog, SameOriginPosts, SecurityHeaders,
                           http_error, storage_error, storage_setup_error, unexpected_error, validation_error)
 from .settings import Settings
 from .storage import StorageError
-
-PLOTLY_JS = Path(plotly.__file__).resolve().parent / "package_data" / "plotly.min.js"
-"""The plotly wheel's own plotly.min.js, served at /vendor/plotly.min.js (no CDN needed); nothing else there is served."""
-
-
-def static_dir() -> Path:
-    """The ``static/`` directory (installed as the package ``electrosieve.static``)."""
-    return Path(str(resources.files("electrosieve.static")))
-
 
 def create_app(settings: Settings | None = None, catalog: Catalog | None = None) -> FastAPI:
     """A new app reading ``settings`` (from the environment by default) and serving ``catalog`` (built-in by default)."""
@@ -44,6 +33,7 @@ def create_app(settings: Settings | None = None, catalog: Catalog | None = None)
 
     @asynccontextmanager
     async def lifespan(_app):
+        assets.plotly_bytes()  # compressed once, before the first page asks for it
         yield
         state.close()
 
@@ -54,7 +44,8 @@ def create_app(settings: Settings | None = None, catalog: Catalog | None = None)
     for router in (screen.router, compare.router, materials.router, shortlists.router, api.router, health.router,
                    docs.router):
         app.include_router(router)
-    app.mount("/static", StaticFiles(directory=static_dir()), name="static")
+    app.mount("/static", assets.VersionedStatic(directory=assets.static_dir()), name="static")
+    app.add_api_route(urls.plotly_js(), assets.plotly_js, include_in_schema=False, response_class=Response)
 
     plain_openapi = app.openapi
 
@@ -65,14 +56,16 @@ def create_app(settings: Settings | None = None, catalog: Catalog | None = None)
     app.openapi = openapi
 
     @app.get("/vendor/plotly.min.js", include_in_schema=False, response_class=Response)
-    def plotly_js() -> FileResponse:
-        return FileResponse(PLOTLY_JS, media_type="text/javascript", headers={"Cache-Control": "public, max-age=86400"})
+    def plotly_js() -> FileResponse:  # the unversioned name, for pages saved before a version was in the path
+        return FileResponse(assets.PLOTLY_JS, media_type="text/javascript",
+                            headers={"Cache-Control": "public, max-age=86400"})
 
     app.add_exception_handler(RequestValidationError, validation_error)
     app.add_exception_handler(StarletteHTTPException, http_error)
     app.add_exception_handler(SQLAlchemyError, storage_error)
     app.add_exception_handler(StorageError, storage_setup_error)
     app.add_exception_handler(Exception, unexpected_error)
+    app.add_middleware(GZipMiddleware, minimum_size=1000)  # HTML, JSON, CSV, JS, CSS; plotly.js comes compressed
     # innermost first: each refusal (413, 503 busy, 429, 403) is cheap and still gets the security headers
     app.add_middleware(BodyLimit, max_bytes=settings.max_body_bytes)
     app.add_middleware(HeavyLimit, limit=settings.heavy_requests, queue=settings.heavy_queue)

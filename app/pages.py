@@ -16,9 +16,9 @@ from electrosieve.engine.screen import screen
 from . import urls
 from .cautions import CAUTIONS
 from .errors import Unprocessable, engine_error, not_found
-from .figures import figure_dict
+from .diagramviews import diagram_view
 from .models import Choice, FieldError, MaterialPage, MaterialsPage, RoleChoice, ScenarioIn, ScreenLinks, ScreenPage
-from .payloads import citation, diagram_payload, materials_payload, onset_lines_payload, screen_payload, sources_payload
+from .payloads import citation, materials_payload, onset_lines_payload, screen_payload, sources_payload
 from .viewstate import ENGINE_FIELD_TO_PARAM, ViewQuery, checked_scenario, parse_number
 
 def screen_result(scenario: ScenarioIn, catalog: Catalog, *, where: str | list = "body", rename: dict | None = None) -> dict:
@@ -114,12 +114,11 @@ def material_page_data(material_id: str, catalog: Catalog, activity: str | None,
     except ElectrosieveError as error:
         raise Unprocessable([engine_error(error, "query", {"scale": "axis"})]) from None
     try:
-        result = diagram(material.element, activity_value, temperature_value, catalog=catalog)
-        payload = diagram_payload(result, catalog)
-        onsets = onset_lines_payload(material.id, result)
-        figure = figure_dict(payload, scales=catalog.scales, scale_id=axis_id,
-                             title=f"{material.name}: {material.element}, {temperature_value:g} °C, "
-                                   f"dissolved at {activity_value:g}", onsets=onsets)
+        payload, figure = diagram_view(catalog, material.element, activity_value, temperature_value, axis=axis_id,
+                                       title=f"{material.name}: {material.element}, {temperature_value:g} °C, "
+                                             f"dissolved at {activity_value:g}", onsets_of=material.id)
+        onsets = onset_lines_payload(material.id, diagram(material.element, activity_value, temperature_value,
+                                                          catalog=catalog))
     except ElectrosieveError as error:
         raise Unprocessable([engine_error(error, "query", {"scale": "axis"})]) from None
     listed = next(row for row in materials_payload(catalog) if row["id"] == material.id)

@@ -19,6 +19,8 @@ Paths:
 
 from urllib.parse import quote, urlencode
 
+from .assets import PLOTLY_VERSION, static_version
+
 API = "/api/v1"
 
 
@@ -127,12 +129,13 @@ def api_sources(element: str) -> str:
 
 
 def static(path: str) -> str:
-    return f"/static/{quote(path)}"
+    """A file under ``static/``, its URL versioned by the files' digest (``app.assets``)."""
+    return f"/static/{quote(path)}?v={static_version()}"
 
 
 def plotly_js() -> str:
-    """plotly.js as bundled in the plotly package (served locally: no CDN)."""
-    return "/vendor/plotly.min.js"
+    """plotly.js as bundled in the plotly package (served locally: no CDN), its version in the path."""
+    return f"/vendor/plotly-{PLOTLY_VERSION}.min.js"
 
 
 def docs() -> str:

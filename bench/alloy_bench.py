@@ -8,7 +8,7 @@ import time
 
 from electrosieve.engine import assemblage
 from electrosieve.engine.alloydata import alloy_data
-from electrosieve.engine.diagram import _cached_diagram
+from electrosieve.engine.diagram import _catalog_diagrams
 
 COMPOSITIONS = {
     "Fe-Cr-Ni (3 elements, 18/10 stainless by atoms)": {"Fe": 0.72, "Cr": 0.18, "Ni": 0.10},
@@ -19,7 +19,7 @@ COMPOSITIONS = {
 
 def _clear() -> None:
     assemblage._cached.cache_clear()
-    _cached_diagram.cache_clear()
+    _catalog_diagrams.cache_clear()
 
 
 def _median_ms(action, repeats: int, fresh: bool) -> float:

@@ -1,36 +1,28 @@
-"""Service benchmark: a bounded load on a real uvicorn server on 127.0.0.1, stopping by itself.
+"""Service benchmark: an interleaved request mix against a real uvicorn server on 127.0.0.1, stopping by itself.
 
-For 1, 8 and 32 concurrent clients it sends a fixed number of requests of
-``POST /api/v1/screen`` (the whole catalog; ``screen`` repeats one scenario, as a
-shared link does, ``screen_fresh`` asks a new one every time) and of ``GET /healthz``
-(the framework's own floor), and reports requests/s, p50 and p99 latency and errors.
+The load comes from another process (``bench/load.py``: asyncio tasks sharing one httpx.AsyncClient) at 1, 8,
+32 and 128 clients, against one and then two uvicorn workers. The mix interleaves ``/healthz`` (the server's own
+floor), the screen API with one scenario repeated and with a fresh one each time (random pH and potential ranges,
+scale, temperature 5–95 °C, activity), the screen page, the compare page (4 candidates), a material page and the
+JSON twins. Each kind's p50 is also given as a multiple of ``/healthz``'s p50 in the same run: on a shared
+machine only these ratios mean something.
 """
 
-import http.client
-import itertools
 import json
 import os
 import socket
-import statistics
 import subprocess
 import sys
 import tempfile
-import threading
 import time
-from concurrent.futures import ThreadPoolExecutor
+from pathlib import Path
 
-SCENARIO = {"ph": [13, 14], "potential": [1.5, 1.7], "scale": "RHE", "role": "anode"}
-SCREEN_BODY = json.dumps(SCENARIO).encode()
-CONCURRENCY = (1, 8, 32)
-REQUESTS = {"screen": 240, "screen_fresh": 240, "healthz": 480}
-FRESH = itertools.count(1)
-"""Numbers the ``screen_fresh`` requests: each narrows the pH range by a different amount, so no two
-ask the same question and no element verdict can be reused (diagrams still can: same element, T, a)."""
+import httpx
 
-
-def fresh_body() -> bytes:
-    """The alkaline OER scenario with a pH range never asked before."""
-    return json.dumps({**SCENARIO, "ph": [13, 14 - 1e-6 * next(FRESH)]}).encode()
+CONCURRENCY = (1, 8, 32, 128)
+REQUESTS = {1: 200, 8: 400, 32: 600, 128: 800}
+WORKERS = (1, 2)
+LOAD = Path(__file__).resolve().parent / "load.py"
 
 
 def free_port() -> int:
@@ -39,83 +31,47 @@ def free_port() -> int:
         return sock.getsockname()[1]
 
 
-def start_server(port: int, data_dir: str) -> subprocess.Popen:
-    """uvicorn in a subprocess; returns once /healthz answers."""
+def start_server(port: int, data_dir: str, workers: int) -> subprocess.Popen:
+    """uvicorn in a subprocess with ``workers`` processes; returns once /healthz answers."""
     env = {**os.environ, "ELECTROSIEVE_DATA_DIR": data_dir}
     process = subprocess.Popen([sys.executable, "-m", "uvicorn", "electrosieve.app.main:app", "--host", "127.0.0.1",
-                                "--port", str(port), "--log-level", "warning"], env=env,
+                                "--port", str(port), "--workers", str(workers), "--log-level", "warning"], env=env,
                                stdout=subprocess.DEVNULL, stderr=subprocess.DEVNULL)
-    deadline = time.time() + 30
+    deadline = time.time() + 60
     while time.time() < deadline:
         try:
-            connection = http.client.HTTPConnection("127.0.0.1", port, timeout=2)
-            connection.request("GET", "/healthz")
-            if connection.getresponse().status == 200:
+            if httpx.get(f"http://127.0.0.1:{port}/healthz", timeout=2).status_code == 200:
                 return process
-        except OSError:
-            time.sleep(0.1)
+        except httpx.HTTPError:
+            time.sleep(0.2)
     process.kill()
     raise RuntimeError("server did not start")
 
 
-def _worker(port: int, kind: str, count: int, latencies: list, errors: list, lock: threading.Lock) -> None:
-    connection = http.client.HTTPConnection("127.0.0.1", port, timeout=30)
-    for _ in range(count):
-        start = time.perf_counter()
-        try:
-            if kind.startswith("screen"):
-                body = SCREEN_BODY if kind == "screen" else fresh_body()
-                connection.request("POST", "/api/v1/screen", body=body, headers={"Content-Type": "application/json"})
-            else:
-                connection.request("GET", "/healthz")
-            response = connection.getresponse()
-            response.read()
-            ok = response.status == 200
-        except (OSError, http.client.HTTPException):
-            ok = False
-            connection.close()
-            connection = http.client.HTTPConnection("127.0.0.1", port, timeout=30)
-        elapsed = (time.perf_counter() - start) * 1000
-        with lock:
-            latencies.append(elapsed)
-            if not ok:
-                errors.append(1)
-    connection.close()
-
-
-def load(port: int, kind: str, clients: int, total: int) -> dict:
-    """``total`` requests shared by ``clients`` threads, each on its own keep-alive connection."""
-    latencies: list[float] = []
-    errors: list[int] = []
-    lock = threading.Lock()
-    share = [total // clients + (1 if i < total % clients else 0) for i in range(clients)]
-    start = time.perf_counter()
-    with ThreadPoolExecutor(max_workers=clients) as pool:
-        for count in share:
-            pool.submit(_worker, port, kind, count, latencies, errors, lock)
-    wall = time.perf_counter() - start
-    latencies.sort()
-    return {
-        "requests": total, "requests_per_s": round(total / wall, 1),
-        "p50_ms": round(statistics.median(latencies), 2),
-        "p99_ms": round(latencies[min(len(latencies) - 1, int(0.99 * len(latencies)))], 2),
-        "errors": len(errors),
-    }
+def load(port: int, clients: int, requests: int, seed: int) -> dict:
+    """One run of the load process; its figures with every kind's p50 over /healthz's p50."""
+    output = subprocess.run([sys.executable, str(LOAD), str(port), str(clients), str(requests), str(seed)],
+                            capture_output=True, text=True, check=True).stdout
+    figures = json.loads(output)
+    floor = figures["healthz"]["p50_ms"]
+    figures["p50_over_healthz"] = {kind: round(value["p50_ms"] / floor, 2) for kind, value in figures.items()
+                                   if isinstance(value, dict) and kind != "healthz"}
+    return figures
 
 
 def service_figures() -> dict:
-    """Figures for every kind of request at every concurrency, and the screen/healthz p50 ratio at 8 clients."""
-    port = free_port()
-    with tempfile.TemporaryDirectory() as data_dir:
-        server = start_server(port, data_dir)
-        try:
-            load(port, "screen", 4, 40)  # warm the diagram caches
-            figures = {kind: {str(c): load(port, kind, c, REQUESTS[kind]) for c in CONCURRENCY} for kind in REQUESTS}
-        finally:
-            server.terminate()
-            server.wait(timeout=10)
-    for kind in ("screen", "screen_fresh"):
-        figures[f"{kind}_over_healthz_p50_at_8"] = round(figures[kind]["8"]["p50_ms"] / figures["healthz"]["8"]["p50_ms"], 2)
+    """Figures for the mix at every concurrency, with one and two workers."""
+    figures = {}
+    for workers in WORKERS:
+        port = free_port()
+        with tempfile.TemporaryDirectory() as data_dir:
+            server = start_server(port, data_dir, workers)
+            try:
+                load(port, 8, 80, seed=0)  # warm every worker: imports, data files, the repeated scenario
+                figures[f"workers_{workers}"] = {str(c): load(port, c, REQUESTS[c], seed=c) for c in CONCURRENCY}
+            finally:
+                server.terminate()
+                server.wait(timeout=20)
     return figures
 
 

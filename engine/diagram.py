@@ -1,8 +1,11 @@
 """The E–pH diagram of one element: domains, boundaries and water lines, and what is stable at a point.
 
 This is the engine's front door: it checks the inputs, builds the free-energy
-planes (``planes``), computes the exact domains (``domains``) and caches the
-result per (element, activity, temperature, limits, ion activities, ligand activities).
+planes (``planes``), computes the exact domains (``domains``, all elements in one
+pass by ``envelope``) and caches the diagrams of every element of the catalog per
+(activity, temperature, limits): the first question under new conditions answers
+every element, since a screen asks about them all. A question with per-ion or ligand
+activities is answered and cached per element instead.
 """
 
 from dataclasses import dataclass
@@ -13,6 +16,7 @@ import numpy as np
 from .catalog import Catalog, ElementSystem, default_catalog
 from .constants import ZERO_CELSIUS
 from .domains import Boundary, Domain, PlotLimits, boundaries, stability_domains, stable_index_at
+from .envelope import Job, domains_of
 from .errors import InputError
 from .formula import FormulaError, parse_formula
 from .geometry import stack
@@ -164,16 +168,52 @@ def diagram(element: str, activity: float = DEFAULT_ACTIVITY, temperature_c: flo
     """
     catalog = catalog or default_catalog()
     system = catalog.system(element)
-    return _cached_diagram(catalog, system.element, check_activity(activity),
-                           check_temperature(temperature_c), check_limits(limits),
-                           check_ion_activities(ion_activities, system, catalog),
-                           check_ligand_activities(ligand_activities, catalog))
+    ions = check_ion_activities(ion_activities, system, catalog)
+    ligands = check_ligand_activities(ligand_activities, catalog)
+    if ions or ligands:
+        return _cached_diagram(catalog, system.element, check_activity(activity), check_temperature(temperature_c),
+                               check_limits(limits), ions, ligands)
+    return _catalog_diagrams(catalog, check_activity(activity), check_temperature(temperature_c),
+                             check_limits(limits))[system.element]
+
+
+CONDITIONS = 16
+"""How many (catalog, activity, temperature, limits) conditions keep their diagrams, least recently used dropped
+first. One condition holds every element's diagram (about 0.5 MB for the built-in catalog, see
+``bench/memory.py``), so the diagram cache stays under about 8 MB."""
+
+
+@lru_cache(maxsize=CONDITIONS)
+def _catalog_diagrams(catalog: Catalog, activity: float, temperature_c: float, limits: PlotLimits) -> dict[str, Diagram]:
+    return build_diagrams(catalog, tuple(catalog.systems), activity, temperature_c, limits)
+
+
+def build_diagrams(catalog: Catalog, elements: tuple[str, ...], activity: float, temperature_c: float,
+                   limits: PlotLimits) -> dict[str, Diagram]:
+    """Uncached diagrams of ``elements`` (checked inputs), every domain and solid domain found in one pass
+    (``engine.envelope``: the same polygons :func:`engine.domains.stability_domains` finds)."""
+    temperature_k = temperature_c + ZERO_CELSIUS
+    water = water_lines(water_gibbs(catalog, temperature_k), temperature_k)
+    planes = [planes_for(catalog.systems[e], catalog, activity, temperature_c) for e in elements]
+    found = domains_of([Job(p, limits) for p in planes] + [Job(p, limits, ~p.dissolved) for p in planes])
+    result = {}
+    for k, (element, plane) in enumerate(zip(elements, planes)):
+        domains = [Domain(index=i, species=plane.species[i], vertices=v, neighbours=n) for i, v, n in found[k]]
+        solids = tuple(Domain(index=i, species=plane.species[i], vertices=v, neighbours=n)
+                       for i, v, n in found[len(elements) + k])
+        made = Diagram(element=element, activity=activity, temperature_c=temperature_c, limits=limits,
+                       planes=plane, domains=tuple(domains), boundaries=tuple(boundaries(plane, domains)), water=water)
+        made.__dict__["solid_domains"] = solids  # already found: fills the cached property
+        result[element] = made
+    return result
 
 
 @lru_cache(maxsize=512)
 def _cached_diagram(catalog: Catalog, element: str, activity: float, temperature_c: float,
                     limits: PlotLimits, ion_activities: tuple[tuple[str, float], ...] = (),
                     ligand_activities: tuple[tuple[str, float], ...] = ()) -> Diagram:
+    """One element's diagram under per-ion or ligand activities (one element at a time: these conditions are
+    rarely shared across a catalog)."""
     system = catalog.systems[element]
     planes = planes_for(system, catalog, activity, temperature_c, ion_activities=ion_activities,
                         ligand_activities=ligand_activities)

@@ -352,8 +352,9 @@ class VerdictStore:
             self.computed = 0
 
 
-VERDICTS = VerdictStore(size=512)
-"""The engine's verdict store: the last 512 questions, each with up to one verdict per element."""
+VERDICTS = VerdictStore(size=64)
+"""The engine's verdict store: the last 64 questions, each with up to one verdict per element (a verdict holds its
+diagram, so a question under new conditions keeps a whole catalog of diagrams alive: about 0.8 MB, see bench/memory.py)."""
 
 
 def judge_elements(catalog: Catalog, scenario: Scenario, elements: list[str]) -> dict[str, ElementVerdict]:

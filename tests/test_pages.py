@@ -11,6 +11,7 @@ import pytest
 from markupsafe import escape
 
 from electrosieve.app.cautions import CAUTIONS
+from electrosieve.app import urls
 from electrosieve.app.figures import rich_formula
 from electrosieve.app.payloads import CSV_COLUMNS
 from electrosieve.app.viewstate import ViewQuery
@@ -241,7 +242,7 @@ def test_compare_page_draws_two_to_four_diagrams_with_fills_and_labels(client):
         assert all(":" in text and text.split(": ")[-1] in ("immunity", "passivation", "corrosion") for text in hovers)
     html = client.get(f"/compare?{COMPARE_QUERY}").text
     assert html.count('data-download="png"') == 3 and html.count('data-download="svg"') == 3
-    assert "/vendor/plotly.min.js" in html
+    assert urls.plotly_js() in html
 
 
 @pytest.mark.parametrize("compare", ["compare=Pt", "compare=Pt&compare=Zn&compare=Cu&compare=Au&compare=Ni",

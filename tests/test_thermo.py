@@ -11,7 +11,7 @@ from electrosieve.engine import planes as planes_module
 from electrosieve.engine import thermo
 from electrosieve.engine.catalog import default_catalog
 from electrosieve.engine.constants import KJ_PER_EV, T_STANDARD, ZERO_CELSIUS, nernst_slope
-from electrosieve.engine.diagram import _cached_diagram, diagram
+from electrosieve.engine.diagram import build_diagrams, diagram
 from electrosieve.engine.inputs import check_temperature
 from electrosieve.engine.domains import PlotLimits
 from electrosieve.engine.errors import InputError
@@ -125,10 +125,10 @@ def test_diagram_at_25_c_is_identical_to_the_tabulated_one(element, monkeypatch)
     catalog = default_catalog()
     if element not in catalog.systems:
         pytest.skip(f"no {element} in the catalog")
-    now = _cached_diagram.__wrapped__(catalog, element, 1e-6, 25.0, PlotLimits())
+    now = build_diagrams(catalog, (element,), 1e-6, 25.0, PlotLimits())[element]
     monkeypatch.setattr(planes_module, "formation_gibbs", _tabulated_only)
     monkeypatch.setattr(diagram_module, "formation_gibbs", _tabulated_only)
-    before = _cached_diagram.__wrapped__(catalog, element, 1e-6, 25.0, PlotLimits())
+    before = build_diagrams(catalog, (element,), 1e-6, 25.0, PlotLimits())[element]
     assert [(b.first, b.second, b.start, b.end, b.intercept, b.slope, b.ph) for b in now.boundaries] == \
            [(b.first, b.second, b.start, b.end, b.intercept, b.slope, b.ph) for b in before.boundaries]
     assert [d.species for d in now.domains] == [d.species for d in before.domains]
