@@ -18,6 +18,7 @@ from electrosieve.engine.scales import canonical_scale, convert, needs_ph
 from electrosieve.engine.screen import screen
 
 from . import payloads
+from .clitable import screen_columns, table_lines
 from .viewstate import cli_scenario, deprecated, parse_number, parse_range
 
 EXIT_BAD_INPUT = 2
@@ -186,28 +187,21 @@ def cmd_screen(args) -> None:
     if args.csv:
         write_csv(result, sys.stdout)
         return
-    _emit(args, result, _print_screen)
+    _emit(args, result, lambda payload: _print_screen(payload, wide=args.wide))
 
 
-def _print_screen(result: dict) -> None:
-    from rich.table import Table
+def _print_screen(result: dict, wide: bool = False) -> None:
+    import shutil
+    import textwrap
 
     s = result["scenario"]
     console = _console()
-    title = (f"{s['role']} at pH {s['ph']}, {s['potential']} V vs {s['scale']}, {s['temperature']:g} °C, "
+    width = shutil.get_terminal_size().columns
+    span = lambda v: f"{v[0]:g} to {v[1]:g}" if isinstance(v, list) else f"{v:g}"  # noqa: E731
+    title = (f"{s['role']} at pH {span(s['ph'])}, {span(s['potential'])} V vs {s['scale']}, {s['temperature']:g} °C, "
              f"dissolved species at {s['activity']:g}; acceptable: {', '.join(s['accept'])}")
-    table = Table(title=title, caption=result["rule"], show_lines=False)
-    for column in ("#", "material", "verdict", "imm %", "pass %", "corr %", "ΔΦ eV", "log c", "margin mV", "USD/kg", "reason"):
-        table.add_column(column, overflow="fold")
-    for row in result["results"]:
-        f = row["fractions"]
-        price = row["price_usd_per_kg"]
-        table.add_row(str(row["rank"]), row["material"], row["verdict"], f"{100 * f['immunity']:.0f}",
-                      f"{100 * f['passivation']:.0f}", f"{100 * f['corrosion']:.0f}", f"{row['instability_ev']:.2f}",
-                      "-" if row["log10_dissolved"] is None else f"{row['log10_dissolved']:.1f}",
-                      f"{row['margin_mv']:.0f}" + ("+" if row["margin_capped"] and row["margin_mv"] > 0 else ""),
-                      "-" if price is None else f"{price:,.0f}", row["reason"])
-    console.print(table)
+    lines = table_lines(screen_columns(result, wide), result["results"], width=None if wide else width)
+    print("\n".join([*textwrap.wrap(title, width), "", *lines, "", *textwrap.wrap(result["rule"], width)]))
     console.print(f"{result['conditions']} Neutral pH {result['neutral_ph']:.2f}.")
     if result["temperature_notes"]:
         console.print("Approximations used away from 25 °C (see `electrosieve diagram ELEMENT --temperature T`): "
@@ -330,6 +324,7 @@ def build_parser() -> argparse.ArgumentParser:
     sub.add_argument("--rank-by", metavar="KEYS", help="ranking order, e.g. unacceptable,instability,dissolved,price")
     sub.add_argument("--weights", metavar="KEY:W,...", help="rank by a weighted score instead, e.g. unacceptable:1,price:0.2")
     sub.add_argument("--csv", action="store_true", help="print the ranked rows as CSV")
+    sub.add_argument("--wide", action="store_true", help="show every column (default: the deciding figures, fitted to the terminal)")
     common(sub, diagram_options=False)
     sub.set_defaults(handler=cmd_screen)
 
