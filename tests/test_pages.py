@@ -154,7 +154,13 @@ def test_bad_query_names_the_parameter(client, query, field):
         as_json.json()
     as_html = client.get(f"/?{query}")
     assert as_html.status_code == 422
-    assert f'data-field="{field}"' in as_html.text
+    # the message sits at its field, once: not repeated in the box above the results
+    messages = re.findall(r'<p class="field-error" id="[^"]+" data-error-for="([^"]+)" role="alert" >([^<]+)</p>', as_html.text)
+    assert any(field in names.split() and field in text for names, text in messages), messages
+    assert f'data-field="{field}"' not in as_html.text
+    assert re.search(rf'name="{field}"[^>]*aria-invalid="true"', as_html.text)
+    for _, text in messages:
+        assert as_html.text.count(text.strip()) == 1
 
 
 def test_screen_csv(client):
@@ -174,7 +180,15 @@ def test_ranked_table_shows_every_column_and_the_rule(client):
                     "log₁₀ dissolved", "Margin mV", "Hazards", "USD/kg", "Reason"):
         assert heading in text, heading
     assert text.index('id="rule-text"') < text.index('id="ranking"')
-    assert 'href="/materials/Pt?activity=1e-06&amp;temperature=25"' in text
+    # a material's link keeps the scenario: its window and scale, drawn on that page, with the way back
+    link = html.unescape(re.search(r'href="(/materials/Pt\?[^"]*)"', text).group(1))
+    assert link == ("/materials/Pt?activity=1e-06&temperature=25&axis=SHE&ph_low=0&ph_high=1&potential_low=-0.2"
+                    "&potential_high=0&scale=SHE")
+    material = client.get(link.replace("/materials/Pt?", "/materials/Pt.json?")).json()
+    window = next(trace for trace in material["figure"]["data"] if trace.get("name") == "operating window")
+    assert sorted(set(window["x"])) == [0, 1] and sorted(set(window["y"])) == [-0.2, 0]
+    assert material["links"]["screen"].startswith("/?ph_low=0&ph_high=1&potential_low=-0.2&potential_high=0&scale=SHE")
+    assert 'id="back-to-ranking"' in client.get(link).text
 
 
 def test_hazards_are_in_plain_words(client):
@@ -383,7 +397,7 @@ def test_the_ranking_fragment_is_the_page_own_rows(client):
     page = client.get(f"/?{SCENARIO_QUERY}&pick=names&materials=Pt&materials=Zn&materials=Cr")
     fragment = client.get(f"/screen/ranking?{SCENARIO_QUERY}&pick=names&materials=Pt&materials=Zn&materials=Cr")
     assert fragment.status_code == 200 and "<html" not in fragment.text
-    rows = re.findall(r'<tr data-material="(\w+)">(.*?)</tr>', fragment.text, flags=re.S)
+    rows = re.findall(r'<tr data-material="(\w+)"[^>]*>(.*?)</tr>', fragment.text, flags=re.S)
     assert sorted(material for material, _ in rows) == ["Cr", "Pt", "Zn"]
     for material, cells in rows:
         assert cells in page.text, material

@@ -1,6 +1,6 @@
 """The screen page: the scenario form and the ranked table, its JSON twin and its CSV."""
 
-from fastapi import APIRouter, Depends, Request
+from fastapi import APIRouter, Depends, Query, Request
 from fastapi.responses import HTMLResponse, Response
 
 from electrosieve.engine.catalog import Catalog
@@ -8,6 +8,7 @@ from electrosieve.engine.catalog import Catalog
 from ..errors import Unprocessable
 from ..models import ScreenPage
 from ..pages import screen_page_data, screen_view
+from ..selection import selected_diagram
 from ..viewstate import ViewQuery
 from .common import CSV_RESPONSES, ERROR_RESPONSES, HTML_RESPONSES, csv_response, get_catalog, render, view_query
 
@@ -20,8 +21,9 @@ router = APIRouter(tags=["pages"])
             include_in_schema=False)
 def screen_html(request: Request, view: ViewQuery = Depends(view_query), catalog: Catalog = Depends(get_catalog)):
     page = screen_page_data(view, catalog)
-    return render(request, "screen.html", {"page": page, "view": view}, json_twin=page.links.json_twin,
-                  status_code=422 if page.errors else 200)
+    selected, _ = selected_diagram(view, page.result.model_dump() if page.result else None, catalog)
+    return render(request, "screen.html", {"page": page, "view": view, "selected": selected},
+                  json_twin=page.links.json_twin, status_code=422 if page.errors else 200)
 
 
 @router.get("/screen/ranking", response_class=HTMLResponse, response_model=None, responses=HTML_RESPONSES,
@@ -29,6 +31,17 @@ def screen_html(request: Request, view: ViewQuery = Depends(view_query), catalog
 def screen_ranking(request: Request, view: ViewQuery = Depends(view_query), catalog: Catalog = Depends(get_catalog)):
     page = screen_page_data(view, catalog)
     return render(request, "screen_ranking.html", {"page": page}, status_code=422 if page.errors else 200)
+
+
+@router.get("/screen/diagram", response_class=HTMLResponse, response_model=None, responses=HTML_RESPONSES,
+            summary="The screen page's selected candidate: its diagram under the operating window, as an HTML fragment")
+def screen_diagram(request: Request, view: ViewQuery = Depends(view_query), catalog: Catalog = Depends(get_catalog),
+                   material: str | None = Query(None, max_length=60, description="a ranked material id (default: the first)")):
+    result, errors = screen_view(view, catalog)
+    selected, pick_errors = selected_diagram(view, result, catalog, material) if not errors else (None, [])
+    errors = errors + pick_errors
+    return render(request, "screen_diagram.html", {"selected": selected, "errors": errors},
+                  status_code=422 if errors else 200)
 
 
 @router.get("/screen.json", response_model=ScreenPage, responses=ERROR_RESPONSES,

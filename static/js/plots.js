@@ -46,6 +46,9 @@
     return window.Plotly.newPlot(plot, figure.data, layout, config).then(readout);
   }
 
+  /* a page script that places a server-built figure later (the screen page's selected candidate) draws it here */
+  window.electrosievePlots = { draw: draw };
+
   var plots = Array.prototype.slice.call(document.querySelectorAll(".plot[data-figure]"));
   Promise.all(plots.map(draw)).then(function () {
     document.body.dataset.plotsReady = "1";
