@@ -86,9 +86,10 @@ def test_bad_input_is_named_next_to_the_form(screen_page):
     page.fill("#ph_low", "3")
     page.fill("#ph_high", "1")
     page.press("#ph_high", "Tab")
-    page.wait_for_selector("#errors:not([hidden])")
-    assert "ph" in page.inner_text("#errors")
+    page.wait_for_selector("#error-ph_low:not([hidden])")
+    assert "inverted" in page.inner_text("#error-ph_low")
     assert page.get_attribute("#ph_low", "aria-invalid") == "true"
+    assert page.locator("#errors").is_hidden()  # said once, at the field
 
 
 def test_compare_page_draws_diagrams_switches_axis_and_downloads(screen_page):

@@ -283,3 +283,66 @@ def test_print_hides_controls_and_keeps_the_results(page, live_server):
     for kept in ("#scenario-line", "#ranking", ".cautions li >> nth=0", "#sources-heading", "[data-print-date]"):
         assert page.locator(kept).is_visible(), kept
     assert re.search(r"\d{4}", page.inner_text("[data-print-date]"))
+
+
+def in_view(page, selector: str) -> bool:
+    """Whether the element is at least partly inside the viewport."""
+    return page.eval_on_selector(selector, """el => { const r = el.getBoundingClientRect();
+        return r.width > 0 && r.height > 0 && r.bottom > 0 && r.top < innerHeight && r.right > 0 && r.left < innerWidth; }""")
+
+
+@pytest.mark.parametrize("size", SIZES, ids=lambda s: f"{s[0]}x{s[1]}")
+def test_diagram_of_the_selected_candidate_shows_with_the_ranking(browser, live_server, size):
+    width, height = size
+    context = browser.new_context(viewport={"width": width, "height": height}, is_mobile=width < 600)
+    try:
+        page = context.new_page()
+        page.set_default_timeout(BROWSER_MS)
+        page.goto(f"{live_server.url}/?{SCENARIO}")
+        page.wait_for_selector("body[data-plots-ready='1']")
+        first = page.get_attribute("#ranking-body tr >> nth=0", "data-material")
+        assert page.get_attribute("#selected-figure", "data-material") == first
+        # click the fourth candidate's reason: its diagram replaces the first one's, with the window drawn
+        row = page.locator("#ranking-body tr >> nth=3")
+        chosen = row.get_attribute("data-material")
+        row.locator("td.reason").click()
+        page.wait_for_selector(f"body[data-selected-ready='{chosen}']")
+        assert page.get_attribute("#selected-figure", "data-material") == chosen
+        assert row.get_attribute("aria-current") == "true"
+        assert page.locator("#plot-selected .legendtext", has_text="operating window").count() == 1
+        assert in_view(page, "#plot-selected")
+        if width > 1200:  # beside the list: the row clicked and its diagram on one screen
+            assert in_view(page, "#ranking-body tr[aria-current='true']")
+        # its page keeps the scenario's window and scale
+        link = page.get_attribute("#selected-link", "href")
+        assert "ph_low=0" in link and "potential_low=1.4" in link and "scale=RHE" in link and "axis=RHE" in link
+        assert page.evaluate("() => document.documentElement.scrollWidth") <= width
+    finally:
+        context.close()
+
+
+@pytest.mark.parametrize("size", SIZES, ids=lambda s: f"{s[0]}x{s[1]}")
+def test_errors_sit_at_their_field_once_and_hide_the_stale_ranking(browser, live_server, size):
+    width, height = size
+    context = browser.new_context(viewport={"width": width, "height": height}, is_mobile=width < 600)
+    try:
+        page = context.new_page()
+        page.set_default_timeout(BROWSER_MS)
+        page.goto(f"{live_server.url}/?{SCENARIO}")
+        page.wait_for_selector("body[data-ready='1']")
+        page.fill("#potential_low", "high")
+        page.wait_for_selector("#error-potential_low:not([hidden])")
+        assert page.get_attribute("#potential_low", "aria-invalid") == "true"
+        message = page.inner_text("#error-potential_low")
+        assert "potential_low" in message
+        assert not page.locator("#errors").is_visible()  # not repeated in a list
+        assert page.locator("body").inner_text().count(message.lstrip("✕ ").strip()) == 1
+        assert not page.locator("#ranking").is_visible() and page.locator(".stale-note").is_visible()
+        assert in_view(page, "#error-potential_low")  # next to the field being typed in, on a phone too
+        page.fill("#potential_low", "1.4")
+        page.wait_for_selector("#error-potential_low[hidden]", state="attached")
+        page.wait_for_selector("#ranking-body tr")
+        assert page.get_attribute("#potential_low", "aria-invalid") is None
+        assert page.locator("#ranking").is_visible()
+    finally:
+        context.close()

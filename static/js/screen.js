@@ -187,13 +187,13 @@
   }
 
   function showSelected() {
-    if (!selectedMaterial) { return; }
+    if (!selectedMaterial) { return Promise.resolve(); }
     if (figureRequest) { figureRequest.abort(); }
     var controller = window.AbortController ? new AbortController() : null;
     figureRequest = controller;
     var params = viewParams();
     params.set("material", selectedMaterial);
-    fetch(form.dataset.diagram + "?" + params.toString(),
+    return fetch(form.dataset.diagram + "?" + params.toString(),
           { headers: { "Accept": "text/html" }, signal: controller ? controller.signal : undefined })
       .then(function (response) { return response.text(); })
       .then(function (text) {
@@ -209,11 +209,16 @@
       });
   }
 
+  /* where the diagram is not beside the list (a phone), bring it into view once the new one is drawn */
+  var stacked = window.matchMedia ? window.matchMedia("(max-width: 74.99rem)") : { matches: false };
+
   function choose(row) {
     if (!row || !row.dataset.material) { return; }
     selectedMaterial = row.dataset.material;
     markSelected();
-    showSelected();
+    showSelected().then(function () {
+      if (stacked.matches) { document.getElementById("selected-figure").scrollIntoView({ block: "start" }); }
+    });
   }
 
   var rankingTable = document.getElementById("ranking");
