@@ -439,7 +439,7 @@ class CompareDiagram(Out):
 
 
 class ComparePage(Out):
-    """Two to four candidates side by side under one scenario, the potential axis on ``axis``."""
+    """One to six candidates side by side under one scenario, the potential axis on ``axis``."""
 
     query: dict[str, str | list[str]]
     axis: str

@@ -346,3 +346,40 @@ def test_errors_sit_at_their_field_once_and_hide_the_stale_ranking(browser, live
         assert page.locator("#ranking").is_visible()
     finally:
         context.close()
+
+
+def test_compare_switches_the_axis_without_reload_and_names_every_axis(page, live_server):
+    page.set_default_timeout(BROWSER_MS)
+    page.goto(f"{live_server.url}/compare?{SCENARIO}&compare=Ir&compare=Pt&compare=Au&compare=Ti&compare=Ni")
+    page.wait_for_selector("body[data-plots-ready='1']")
+    assert page.locator("#compare-table thead th[data-material]").count() == 5
+    page.evaluate("() => { window.sameDocument = true; }")
+    page.select_option("#axis", "SCE")
+    page.wait_for_selector("body[data-axis='SCE']", state="attached")
+    assert page.evaluate("() => window.sameDocument === true")  # redrawn in place, not reloaded
+    assert "axis=SCE" in page.url
+    titles = page.eval_on_selector_all(".plot .ytitle", "nodes => nodes.map(n => n.textContent)")
+    assert len(titles) == 5 and all(t == "E / V vs SCE" for t in titles), titles
+    assert page.eval_on_selector_all(".plot .xtitle", "nodes => nodes.map(n => n.textContent)") == ["pH"] * 5
+    assert page.locator(".plot-readout").count() == 5  # one readout per plot, however often redrawn
+    assert all("axis=SCE" in href for href in page.eval_on_selector_all(
+        "a[data-material-link]", "links => links.map(a => a.getAttribute('href'))"))
+
+
+def test_screen_says_inline_when_the_ticks_are_too_many_to_compare(screen_ticks_page):
+    page = screen_ticks_page
+    boxes = page.locator("#ranking-body input[name=compare]")
+    for index in range(3, 7):
+        boxes.nth(index).check()
+    assert "untick 1" in page.inner_text("#compare-count")
+    assert page.get_attribute("#compare-button", "aria-disabled") == "true"
+    boxes.nth(6).uncheck()
+    assert "6 ticked" in page.inner_text("#compare-count")
+
+
+@pytest.fixture()
+def screen_ticks_page(page, live_server):
+    page.set_default_timeout(BROWSER_MS)
+    page.goto(f"{live_server.url}/?{SCENARIO}")
+    page.wait_for_selector("body[data-ready='1']")
+    return page

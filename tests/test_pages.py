@@ -242,13 +242,32 @@ def test_compare_page_draws_two_to_four_diagrams_with_fills_and_labels(client):
     assert "/vendor/plotly.min.js" in html
 
 
-@pytest.mark.parametrize("compare", ["compare=Pt", "compare=Pt&compare=Zn&compare=Cu&compare=Au&compare=Ni",
-                                     "compare=Pt&compare=Unobtainium"])
-def test_compare_needs_two_to_four_known_materials(client, compare):
+SEVEN = "&".join(f"compare={m}" for m in ("Pt", "Zn", "Cu", "Au", "Ni", "Ir", "Ti"))
+
+
+@pytest.mark.parametrize("compare, words", [("", "tick at least one"), (SEVEN, "given 7); untick 1"),
+                                            ("compare=Pt&compare=Unobtainium", "Unobtainium")])
+def test_compare_needs_one_to_six_known_materials(client, compare, words):
     response = client.get(f"/compare.json?{SCENARIO_QUERY}&{compare}")
     assert response.status_code == 422
     assert response.json()["detail"][0]["loc"] == ["query", "compare"]
-    assert client.get(f"/compare?{SCENARIO_QUERY}&{compare}").status_code == 422
+    assert words in response.json()["detail"][0]["msg"]
+    page = client.get(f"/compare?{SCENARIO_QUERY}&{compare}")
+    assert page.status_code == 422 and html.escape(words, quote=False) in page.text
+
+
+@pytest.mark.parametrize("count", [1, 6])
+def test_compare_takes_one_to_six_with_a_column_of_figures_each(client, count):
+    ids = ["Pt", "Zn", "Cu", "Au", "Ni", "Ir"][:count]
+    query = SCENARIO_QUERY + "".join(f"&compare={m}" for m in ids)
+    data = client.get(f"/compare.json?{query}").json()
+    assert [d["material"] for d in data["diagrams"]] == ids
+    text = client.get(f"/compare?{query}").text
+    table = re.search(r'<table id="compare-table".*?</table>', text, flags=re.S).group(0)
+    assert re.findall(r'<th scope="col" data-material="(\w+)"', table) == ids
+    for label in ("Verdict", "Immunity", "Passivation", "Corrosion", "Instability", "dissolved", "Margin", "USD/kg",
+                  "Hazards"):
+        assert label in table, label
 
 
 def test_rhe_window_is_a_slanted_band_on_the_she_axis(client):

@@ -16,6 +16,7 @@
 
   /* a readout under the plot: where the pointer is, in pH and in volts on the plot's own scale */
   function readout(plot) {
+    if (plot.nextElementSibling && plot.nextElementSibling.classList.contains("plot-readout")) { return; }  // redrawn
     var line = document.createElement("p");
     line.className = "plot-readout";
     line.setAttribute("aria-live", "off");

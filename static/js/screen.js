@@ -149,8 +149,27 @@
     timer = setTimeout(rerun, QUIET_MS);
   }
 
+  /* the compare button says at once when the ticks are outside 1 to 6 (the compare page would say it too) */
+  var compareCount = document.getElementById("compare-count");
+  function countTicks() {
+    var ticked = document.querySelectorAll("#ranking-body input[name=compare]:checked").length;
+    var low = Number(compareCount.dataset.low), high = Number(compareCount.dataset.high);
+    var fine = ticked >= low && ticked <= high;
+    compareCount.textContent = fine ? ticked + " ticked (1 to 6)" :
+      (ticked > high ? ticked + " ticked: untick " + (ticked - high) + " (at most " + high + ")" : "tick at least one");
+    compareCount.classList.toggle("field-error", !fine);
+    document.getElementById("compare-button").setAttribute("aria-disabled", fine ? "false" : "true");
+    return fine;
+  }
+  document.getElementById("compare-button").addEventListener("click", function (event) {
+    if (!countTicks()) { event.preventDefault(); }
+  });
+  document.addEventListener("electrosieve:ranked", countTicks);
+  document.getElementById("ranking").addEventListener("change", countTicks);
+  countTicks();
+
   form.addEventListener("change", function (event) {
-    if (event.target && event.target.name === "compare") { return; }
+    if (event.target && event.target.name === "compare") { countTicks(); return; }
     clearTimeout(timer);
     rerun();
   });
