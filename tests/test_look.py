@@ -383,3 +383,23 @@ def screen_ticks_page(page, live_server):
     page.goto(f"{live_server.url}/?{SCENARIO}")
     page.wait_for_selector("body[data-ready='1']")
     return page
+
+
+def test_shortlist_copy_link_copies_its_address(browser, live_server, shortlist_path):
+    context = browser.new_context(viewport={"width": 1366, "height": 768})
+    try:
+        context.grant_permissions(["clipboard-read", "clipboard-write"], origin=live_server.url)
+        page = context.new_page()
+        page.set_default_timeout(BROWSER_MS)
+        page.goto(live_server.url + shortlist_path)
+        page.click("#copy-link")
+        page.wait_for_selector("body[data-copied]", state="attached")
+        assert page.evaluate("() => navigator.clipboard.readText()") == live_server.url + shortlist_path
+        assert page.inner_text("#copy-status") == "Link copied."
+        # the date in words, the exact moment on hover and for machines
+        saved = page.locator("#saved-at")
+        assert re.fullmatch(r"\d{4}-\d\d-\d\dT\d\d:\d\d:\d\d[+-]\d\d:\d\d", saved.get_attribute("datetime"))
+        assert saved.get_attribute("title") == saved.get_attribute("datetime")
+        assert re.fullmatch(r"\d{1,2} [A-Z][a-z]{2} \d{4}, \d\d:\d\d UTC", saved.inner_text())
+    finally:
+        context.close()

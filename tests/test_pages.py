@@ -342,20 +342,39 @@ def test_shortlist_notice_when_todays_catalog_ranks_differently(client):
     storage = client.app.state.electrosieve.storage
     result = client.post("/api/v1/screen", json={"ph": [0, 1], "potential": [-0.2, 0.0], "role": "cathode",
                                                  "materials": ["Pt", "Zn", "Cu"]}).json()
-    swapped = {**result, "catalog_version": "older", "results": list(reversed(result["results"]))}
+    swapped = {**result, "catalog_version": "older",
+               "results": [{**row, "rank": i + 1} for i, row in enumerate(reversed(result["results"]))]}
     stored = save_shortlist(engine=storage, title="computed with older data", scenario=result["scenario"],
                             result=swapped, notes={})
     page = client.get(f"/s/{stored.id}.json").json()
     assert page["today"]["same_order"] is False and page["today"]["same_version"] is False
     assert "would rank differently" in page["today"]["message"]
     assert "would rank differently" in client.get(f"/s/{stored.id}").text
+    # the difference, row by row: saved reversed, so today's first moved up by n-1 and today's last down by n-1
+    n = len(result["results"])
+    changes = {c["material"]: c for c in page["today"]["changes"]}
+    first, last = result["results"][0], result["results"][-1]
+    assert changes[first["material"]]["moved"] == n - 1 and changes[first["material"]]["rank_before"] == n
+    assert changes[last["material"]]["moved"] == -(n - 1)
+    assert changes[first["material"]]["reason"] == first["reason"]
+    assert f"moved up {n - 1}</span>" in client.get(f"/s/{stored.id}").text
 
 
 def test_shortlist_csv_has_the_notes(client, shortlist_id):
     response = client.get(f"/s/{shortlist_id}.csv")
     assert response.status_code == 200 and response.headers["content-type"].startswith("text/csv")
-    rows = {row["material"]: row for row in csv.DictReader(io.StringIO(response.text))}
+    lines = response.text.splitlines()
+    block = [line for line in lines if line.startswith("#")]
+    assert lines[:len(block)] == block  # the header block comes first, then the table
+    facts = dict(line[2:].split(": ", 1) for line in block)
+    page = client.get(f"/s/{shortlist_id}.json").json()
+    assert facts["electrosieve shortlist"] == page["title"] and facts["saved"] == page["created_at"]
+    assert facts["catalog version"].startswith(page["catalog_version"])
+    assert facts["scenario"].startswith(f"{page['scenario']['role']} at pH ")
+    rows = {row["material"]: row for row in csv.DictReader(io.StringIO("\n".join(lines[len(block):])))}
     assert rows["Cu"]["note"] == "cheap & cheerful" and rows["Zn"]["note"] == ""
+    disposition = response.headers["content-disposition"]
+    assert re.fullmatch(r'attachment; filename="electrosieve-shortlist-[a-z0-9-]+-\d{4}-\d{2}-\d{2}\.csv"', disposition)
 
 
 def test_unknown_shortlist_pages_are_404(client):

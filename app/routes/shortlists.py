@@ -1,5 +1,7 @@
 """Saved shortlists: the read-only page /s/{id}, its JSON twin and CSV, and the screen page's save form."""
 
+from datetime import datetime, timezone
+
 from fastapi import APIRouter, Depends, Request
 from fastapi.responses import HTMLResponse, RedirectResponse, Response
 from pydantic import ValidationError
@@ -7,6 +9,8 @@ from pydantic import ValidationError
 from electrosieve.engine.catalog import Catalog
 
 from .. import urls
+from ..csvheader import csv_preamble, scenario_text
+from ..filenames import download_name
 from ..errors import Unprocessable
 from ..models import ShortlistCreate, ShortlistPublic
 from ..shortlists import create_shortlist, find_shortlist, shortlist_public
@@ -28,9 +32,16 @@ def shortlist_json(shortlist_id: str, catalog: Catalog = Depends(get_catalog), s
 
 @router.get("/s/{shortlist_id}.csv", response_class=Response, response_model=None, responses=CSV_RESPONSES,
             summary="A shortlist's ranked candidates as CSV, with the notes")
-def shortlist_csv(shortlist_id: str, storage=Depends(get_storage)) -> Response:
+def shortlist_csv(shortlist_id: str, catalog: Catalog = Depends(get_catalog), storage=Depends(get_storage)) -> Response:
     stored = find_shortlist(shortlist_id, storage)
-    return csv_response(stored.result, f"electrosieve-shortlist-{stored.id}.csv", notes=stored.notes)
+    preamble = csv_preamble([
+        ("electrosieve shortlist", stored.title), ("link", urls.shortlist_page(stored.id)),
+        ("scenario", scenario_text(stored.scenario)), ("rule", stored.result["rule"]),
+        ("catalog version", f"{stored.catalog_version} (today: {catalog.version})"),
+        ("saved", stored.created_at), ("downloaded", datetime.now(timezone.utc).isoformat(timespec="seconds")),
+    ])
+    return csv_response(stored.result, download_name("electrosieve-shortlist", stored.title, stored.created_at, "csv"),
+                        notes=stored.notes, preamble=preamble)
 
 
 @router.get("/s/{shortlist_id}", response_class=HTMLResponse, response_model=None, responses=HTML_RESPONSES,
