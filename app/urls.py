@@ -44,6 +44,11 @@ def screen_csv(view=None) -> str:
     return with_query("/screen.csv", _view_pairs(view))
 
 
+def screen_picture(view=None) -> str:
+    """The ranking as a picture (SVG): one strip per candidate, the operating window's fate."""
+    return with_query("/screen/picture.svg", _view_pairs(view))
+
+
 def screen_ranking(view=None) -> str:
     """The screen page's ranked pieces alone, as HTML the page's script swaps in."""
     return with_query("/screen/ranking", _view_pairs(view))

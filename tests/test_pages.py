@@ -447,3 +447,22 @@ def test_the_ranking_fragment_names_a_bad_parameter(client):
     fragment = client.get("/screen/ranking?ph_low=3&ph_high=1&potential_low=0")
     assert fragment.status_code == 422
     assert '<li data-field="ph_low">' in fragment.text and "inverted" in fragment.text
+
+
+def test_ranking_picture_is_one_strip_per_candidate_filling_the_window(client):
+    from xml.etree import ElementTree
+
+    response = client.get(f"/screen/picture.svg?{SCENARIO_QUERY}")
+    assert response.status_code == 200 and response.headers["content-type"].startswith("image/svg+xml")
+    assert re.fullmatch(r'inline; filename="electrosieve-ranking-cathode-\d{4}-\d\d-\d\d\.svg"',
+                        response.headers["content-disposition"])
+    svg = ElementTree.fromstring(response.text)
+    ns = {"s": "http://www.w3.org/2000/svg"}
+    rows = svg.findall("s:g[@data-material]", ns)
+    ranked = client.get(f"/screen.json?{SCENARIO_QUERY}").json()["result"]["results"]
+    assert [g.get("data-material") for g in rows] == [row["material"] for row in ranked]
+    for g, row in zip(rows, ranked):
+        widths = [float(rect.get("width")) for rect in g.findall("s:rect", ns)]
+        assert sum(widths) == pytest.approx(360, abs=0.05)  # the shares cover the whole window
+        assert row["verdict"] in "".join(g.itertext())  # the verdict in words, not colour alone
+    assert client.get("/screen/picture.svg?ph_low=3&ph_high=1&potential_low=0").status_code == 422

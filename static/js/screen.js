@@ -93,6 +93,9 @@
     var suffix = query ? "?" + query : "";
     history.replaceState(null, "", form.dataset.page + suffix);
     document.getElementById("csv-link").href = form.dataset.csv + suffix;
+    var picture = document.getElementById("ranking-picture");
+    document.getElementById("picture-svg").href = picture.dataset.picture + suffix;
+    if (document.getElementById("picture-box").open) { picture.data = picture.dataset.picture + suffix; }
     document.getElementById("json-link").href = form.dataset.json + suffix;
     var twin = document.querySelector("link[rel=alternate][type='application/json']");
     if (twin) { twin.href = form.dataset.json + suffix; }
@@ -252,6 +255,38 @@
     }
   });
   document.addEventListener("electrosieve:ranked", function () { markSelected(); showSelected(); });
+
+  /* ---- the picture of the ranking: drawn by the server as SVG; PNG made here, in the browser ---- */
+  var pictureBox = document.getElementById("picture-box");
+  pictureBox.addEventListener("toggle", function () {
+    var picture = document.getElementById("ranking-picture");
+    var wanted = document.getElementById("picture-svg").href;
+    if (pictureBox.open && picture.data !== wanted) { picture.data = wanted; }
+  });
+  document.getElementById("picture-png").addEventListener("click", function () {
+    var source = document.getElementById("picture-svg").href;
+    fetch(source).then(function (response) { return response.text(); }).then(function (text) {
+      var image = new Image();
+      var blobUrl = URL.createObjectURL(new Blob([text], { type: "image/svg+xml" }));
+      image.onload = function () {
+        var canvas = document.createElement("canvas");
+        canvas.width = image.width * 2; canvas.height = image.height * 2;  // sharp on paper and high-density screens
+        var context = canvas.getContext("2d");
+        context.scale(2, 2);
+        context.drawImage(image, 0, 0);
+        URL.revokeObjectURL(blobUrl);
+        canvas.toBlob(function (blob) {
+          var link = el("a");
+          link.href = URL.createObjectURL(blob);
+          link.download = "electrosieve-ranking.png";
+          document.body.appendChild(link);
+          link.click();
+          link.remove();
+        }, "image/png");
+      };
+      image.src = blobUrl;
+    });
+  });
 
   /* ---- saving a shortlist ---- */
   saveForm.addEventListener("submit", function (event) {
