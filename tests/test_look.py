@@ -403,3 +403,21 @@ def test_shortlist_copy_link_copies_its_address(browser, live_server, shortlist_
         assert re.fullmatch(r"\d{1,2} [A-Z][a-z]{2} \d{4}, \d\d:\d\d UTC", saved.inner_text())
     finally:
         context.close()
+
+
+@pytest.mark.parametrize("size", SIZES, ids=lambda s: f"{s[0]}x{s[1]}")
+def test_ranking_picture_opens_within_the_page_width(browser, live_server, size):
+    width, height = size
+    context = browser.new_context(viewport={"width": width, "height": height}, is_mobile=width < 600)
+    try:
+        page = context.new_page()
+        page.set_default_timeout(BROWSER_MS)
+        page.goto(f"{live_server.url}/?{SCENARIO}")
+        page.wait_for_selector("body[data-ready='1']")
+        page.click("#picture-box summary")
+        page.wait_for_function("() => document.getElementById('ranking-picture').naturalWidth > 0")
+        assert page.eval_on_selector("#ranking-picture", "img => img.getBoundingClientRect().right") <= width
+        assert page.evaluate("() => document.documentElement.scrollWidth") <= width
+        assert page.get_attribute("#picture-svg", "href").startswith("/screen/picture.svg?")
+    finally:
+        context.close()

@@ -95,7 +95,7 @@
     document.getElementById("csv-link").href = form.dataset.csv + suffix;
     var picture = document.getElementById("ranking-picture");
     document.getElementById("picture-svg").href = picture.dataset.picture + suffix;
-    if (document.getElementById("picture-box").open) { picture.data = picture.dataset.picture + suffix; }
+    if (document.getElementById("picture-box").open) { picture.src = picture.dataset.picture + suffix; }
     document.getElementById("json-link").href = form.dataset.json + suffix;
     var twin = document.querySelector("link[rel=alternate][type='application/json']");
     if (twin) { twin.href = form.dataset.json + suffix; }
@@ -261,7 +261,7 @@
   pictureBox.addEventListener("toggle", function () {
     var picture = document.getElementById("ranking-picture");
     var wanted = document.getElementById("picture-svg").href;
-    if (pictureBox.open && picture.data !== wanted) { picture.data = wanted; }
+    if (pictureBox.open && picture.src !== wanted) { picture.src = wanted; }
   });
   document.getElementById("picture-png").addEventListener("click", function () {
     var source = document.getElementById("picture-svg").href;
