@@ -266,7 +266,8 @@ def test_diagram_toolbar_offers_only_local_actions(page, live_server):
     assert titles and any("png" in title.lower() for title in titles)
     assert not [t for t in titles if re.search(r"cloud|studio|edit|plotly", t, re.I)], titles
     assert page.locator(".modebar a[href^='http']").count() == 0
-    # the readout names pH and volts on the plot's own scale
+    # the readout names pH and volts on the plot's own scale (the plots sit under the side-by-side table)
+    page.locator(".plot >> nth=0").scroll_into_view_if_needed()
     box = page.locator(".plot .nsewdrag >> nth=0").bounding_box()
     page.mouse.move(box["x"] + box["width"] * 0.3, box["y"] + box["height"] * 0.4)
     assert re.fullmatch(r"pH -?\d+\.\d\d · E -?\d+\.\d{3} V vs RHE", page.inner_text(".plot-readout >> nth=0"))
