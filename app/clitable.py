@@ -92,7 +92,7 @@ def table_lines(columns: list[Column], rows: list[dict], width: int | None = Non
 
     >>> cols = [Column("#", lambda r: str(r["rank"])), Column("reason", lambda r: r["reason"], "left")]
     >>> table_lines(cols, [{"rank": 1, "reason": "passive over the whole window"}], width=16)
-    ['#  reason', '-  ------------', '1  passive over…']
+    ['#  reason', '-  -------------', '1  passive over…']
     """
     cells = [[column.cell(row) for column in columns] for row in rows]
     widths = [max([len(column.heading)] + [len(line[i]) for line in cells]) for i, column in enumerate(columns)]

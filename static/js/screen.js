@@ -93,9 +93,8 @@
     var suffix = query ? "?" + query : "";
     history.replaceState(null, "", form.dataset.page + suffix);
     document.getElementById("csv-link").href = form.dataset.csv + suffix;
-    var picture = document.getElementById("ranking-picture");
-    document.getElementById("picture-svg").href = picture.dataset.picture + suffix;
-    if (document.getElementById("picture-box").open) { picture.src = picture.dataset.picture + suffix; }
+    document.getElementById("picture-svg").href = document.getElementById("picture-frame").dataset.picture + suffix;
+    if (document.getElementById("picture-box").open) { showPicture(); }
     document.getElementById("json-link").href = form.dataset.json + suffix;
     var twin = document.querySelector("link[rel=alternate][type='application/json']");
     if (twin) { twin.href = form.dataset.json + suffix; }
@@ -108,6 +107,19 @@
       hidden.setAttribute("data-scenario-copy", "");
       saveForm.appendChild(hidden);
     });
+  }
+
+  /* the picture of the ranking, for the scenario now in the form (made when first wanted) */
+  function showPicture() {
+    var picture = document.getElementById("ranking-picture");
+    if (!picture) {
+      picture = el("img");
+      picture.id = "ranking-picture";
+      picture.alt = "For each ranked candidate, a strip of the operating window split by stable phase, with its verdict in words";
+      document.getElementById("picture-frame").appendChild(picture);
+    }
+    var wanted = document.getElementById("picture-svg").href;
+    if (picture.src !== wanted) { picture.src = wanted; }
   }
 
   /* ---- running the screen ---- */
@@ -258,11 +270,7 @@
 
   /* ---- the picture of the ranking: drawn by the server as SVG; PNG made here, in the browser ---- */
   var pictureBox = document.getElementById("picture-box");
-  pictureBox.addEventListener("toggle", function () {
-    var picture = document.getElementById("ranking-picture");
-    var wanted = document.getElementById("picture-svg").href;
-    if (pictureBox.open && picture.src !== wanted) { picture.src = wanted; }
-  });
+  pictureBox.addEventListener("toggle", function () { if (pictureBox.open) { showPicture(); } });
   document.getElementById("picture-png").addEventListener("click", function () {
     var source = document.getElementById("picture-svg").href;
     fetch(source).then(function (response) { return response.text(); }).then(function (text) {
