@@ -20,6 +20,7 @@ from electrosieve.engine.roles import roles
 from electrosieve.engine.screen import screen
 
 from . import csvcells, payloads
+from .clitable import legend, screen_columns, table_lines
 from .ranges import within
 from .viewstate import cli_scenario, cli_solution, deprecated, parse_number, parse_range
 
@@ -218,75 +219,23 @@ def cmd_screen(args) -> None:
     if args.csv:
         write_csv(result, sys.stdout)
         return
-    _emit(args, result, _print_screen)
+    _emit(args, result, lambda payload: _print_screen(payload, wide=args.wide))
 
 
-VERDICT_SHORT = {"partly acceptable": "partly"}
-CONDUCTION_SHORT = {"semiconductor": "semicond."}
-KINETIC_HEADINGS = {"oxygen-onset": "O2 V", "hydrogen-onset": "H2 V", "hydrogen-held-back": "H2 V",
-                    "window-width": "width V"}
-"""The table's heading for each role's kinetic criterion (``engine.roles``)."""
-CRITERION_WORDS = {"oxygen-onset": "the material's oxygen-evolution onset", "hydrogen-onset": "its hydrogen-evolution onset",
-                   "hydrogen-held-back": "its hydrogen-evolution onset",
-                   "window-width": "its own water window (oxygen onset minus hydrogen onset)"}
-
-
-def _draws(result: dict) -> int:
-    return next((row["robustness"]["draws"] for row in result["results"] if row["robustness"]), 0)
-
-
-def _kinetic_cell(kinetics: dict | None, criterion: str) -> str:
-    """The role's kinetic value as the table shows it [V]; ? where unknown."""
-    if kinetics is None:
-        return "?"
-    hydrogen, oxygen = kinetics["hydrogen_onset_v_rhe"], kinetics["oxygen_onset_v_rhe"]
-    if criterion == "oxygen-onset":
-        value = oxygen
-    elif criterion == "window-width":
-        value = None if hydrogen is None or oxygen is None else oxygen - hydrogen
-    else:
-        value = hydrogen
-    return "?" if value is None else f"{value:.2f}"
-
-
-def _dissolved_cell(log10: float | None) -> str:
-    if log10 is None:
-        return "?"
-    return "free" if log10 >= 0 else f"{log10:.1f}"
-
-
-def _print_screen(result: dict) -> None:
-    from rich import box
-    from rich.table import Table
+def _print_screen(result: dict, wide: bool = False) -> None:
+    import shutil
+    import textwrap
 
     s = result["scenario"]
     console = _console()
-    title = (f"{s['role']} at pH {s['ph']}, {s['potential']} V vs {s['scale']}, {s['temperature']:g} °C, "
+    width = shutil.get_terminal_size().columns
+    span = lambda v: f"{v[0]:g} to {v[1]:g}" if isinstance(v, list) else f"{v:g}"  # noqa: E731
+    title = (f"{s['role']} at pH {span(s['ph'])}, {span(s['potential'])} V vs {s['scale']}, {s['temperature']:g} °C, "
              f"dissolved species at {s['activity']:g}; acceptable: {', '.join(s['accept'])}")
-    criterion = roles()[s["role"]].criterion
-    kinetic = None if criterion is None or s["rank_by"] or s["weights"] else criterion.name
-    caption = (f"{result['rule']} surface: the least conducting surface met; p: share of {_draws(result)} draws "
-               "in which the verdict holds (~: may swap with the next row within the data's uncertainties); "
-               + (f"{KINETIC_HEADINGS[kinetic]}: {CRITERION_WORDS[kinetic]} vs RHE at {s['current_density']:g} mA cm^-2; "
-                  if kinetic else "")
-               + "log c: largest equilibrium dissolved metal, log10 M (free: above 1 M; ?: unknown).")
-    table = Table(title=title, caption=caption, show_lines=False, box=box.SIMPLE_HEAD, pad_edge=False)
-    columns = ("#", "material", "verdict", "surface", "p", *([KINETIC_HEADINGS[kinetic]] if kinetic else []), "log c",
-               "USD/kg")
-    for column in columns:
-        table.add_column(column, overflow="fold", no_wrap=column not in ("material",),
-                         justify="right" if column in ("#", "p", "log c", "USD/kg", *KINETIC_HEADINGS.values()) else "left")
-    for row in result["results"]:
-        price, surface, robust = row["price_usd_per_kg"], row["surface"], row["robustness"]
-        p = "-" if robust is None else f"{robust['verdict_probability']:.2f}" + ("~" if row["order_robust"] is False else "")
-        table.add_row(str(row["rank"]), row["material"], VERDICT_SHORT.get(row["verdict"], row["verdict"]),
-                      "-" if surface is None else CONDUCTION_SHORT.get(surface["conduction"], surface["conduction"]), p,
-                      *([_kinetic_cell(row["kinetics"], kinetic)] if kinetic else []), _dissolved_cell(row["log10_dissolved"]),
-                      "-" if price is None else (f"{price:,.0f}" if price >= 10 else f"{price:.2g}"))
-    console.print(table)
-    console.print("Why:")
-    for row in result["results"]:
-        console.print(f" {row['rank']:>2} {row['material']}: {row['reason']}", highlight=False)
+    columns = screen_columns(result, wide)
+    lines = table_lines(columns, result["results"], width=None if wide else width)
+    print("\n".join([*textwrap.wrap(title, width), "", *lines, "", *textwrap.wrap(legend(columns, result), width), "",
+                      *textwrap.wrap(result["rule"], width)]))
     noted = [(row["material"], n) for row in result["results"][:10] for n in row["notes"] if n["kind"] != "kinetic"]
     for material, note in noted:
         console.print(f"[bold]{note['kind']}[/bold] {material}: {note['text']} ({note['source']})")
@@ -459,6 +408,7 @@ def build_parser() -> argparse.ArgumentParser:
     sub.add_argument("--weights", metavar="KEY:W,...", help="rank by a weighted score instead, e.g. unacceptable:1,price:0.2")
     sub.add_argument("--csv", action="store_true", help="print the ranked rows as CSV")
     solution_options(sub)
+    sub.add_argument("--wide", action="store_true", help="show every column (default: the deciding figures, fitted to the terminal)")
     common(sub, diagram_options=False)
     sub.set_defaults(handler=cmd_screen)
 

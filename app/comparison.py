@@ -1,4 +1,4 @@
-"""The comparison: two to four candidates' diagrams side by side under one operating window (the compare page's data)."""
+"""The comparison: one to six candidates' diagrams and figures side by side under one operating window (the compare page's data)."""
 
 from electrosieve.engine.catalog import Catalog
 from electrosieve.engine.errors import ElectrosieveError
@@ -15,7 +15,7 @@ from .pages import form_choices, screen_result
 from .payloads import citation, sources_payload
 from .viewstate import ENGINE_FIELD_TO_PARAM, ViewQuery
 
-COMPARE_RANGE = (2, 4)
+COMPARE_RANGE = (1, 6)
 """How many candidates the page shows side by side."""
 
 
@@ -24,8 +24,10 @@ def chosen_materials(view: ViewQuery, catalog: Catalog) -> tuple[list[str], list
     given = view.compare or (view.materials if view.picked() == "names" else [])
     low, high = COMPARE_RANGE
     if not low <= len(dict.fromkeys(given)) <= high:
+        given_count = len(dict.fromkeys(given))
+        advice = f"untick {given_count - high}" if given_count > high else "tick at least one on the screen page"
         return [], [FieldError(loc=["query", "compare"],
-                               msg=f"compare: choose {low} to {high} materials (given {len(given)})")]
+                               msg=f"compare: choose {low} to {high} materials (given {given_count}); {advice}")]
     try:
         return list(dict.fromkeys(material_id(catalog, m) for m in given)), []
     except ElectrosieveError as error:
@@ -69,7 +71,7 @@ def compare_page_data(view: ViewQuery, catalog: Catalog) -> ComparePage:
                     material=mid, name=material.name, element=material.element, row=rows.get(mid), diagram=payload,
                     figure=figure, links={"material": urls.material_page(mid, activity=scenario["activity"],
                                                                          temperature=scenario["temperature"],
-                                                                         axis=axis)}))
+                                                                         axis=axis, window=scenario)}))
         except ElectrosieveError as error:  # e.g. a scale not tabulated at this temperature
             errors.append(engine_error(error, "query", {"scale": "axis"}))
             diagrams = []

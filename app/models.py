@@ -441,6 +441,19 @@ class ShortlistCreated(Out):
     url: str
 
 
+class RankChange(Out):
+    """One candidate whose rank or verdict differs today (``app.rankdiff.ranking_changes``)."""
+
+    material: str
+    name: str
+    rank_before: int | None = Field(description="rank when saved; null when it was not ranked then")
+    rank_now: int | None = Field(description="rank today; null when today's catalog no longer ranks it")
+    moved: int | None = Field(description="places moved up (positive) or down (negative); null when on one side only")
+    verdict_before: str | None
+    verdict_now: str | None
+    reason: str = Field(description="today's one-line reason")
+
+
 class RankCheck(Out):
     """Today's catalog against the one the shortlist was computed with."""
 
@@ -449,6 +462,7 @@ class RankCheck(Out):
     same_order: bool | None = Field(description="null when today's catalog cannot screen the scenario any more")
     order: list[str]
     message: str
+    changes: list[RankChange] = Field(default=[], description="the candidates that moved or changed verdict today")
 
 
 class ShortlistRow(ScreenRow):
@@ -542,7 +556,7 @@ class CompareDiagram(Out):
 
 
 class ComparePage(Out):
-    """Two to four candidates side by side under one scenario, the potential axis on ``axis``."""
+    """One to six candidates side by side under one scenario, the potential axis on ``axis``."""
 
     query: dict[str, str | list[str]]
     axis: str

@@ -98,9 +98,33 @@ def _number(text: str | None, name: str, default: float, errors: list[FieldError
         return default
 
 
+def material_window(material_id: str, catalog: Catalog, window: dict | None, activity: float, temperature: float
+                    ) -> tuple[dict | None, str | None]:
+    """A screen's operating window carried to a material's page (``ph_low``…``scale`` as typed) and the way back.
+
+    Returns (the screen payload of this one material under that window, the screen page's URL) or (None, None)
+    when no window was given.
+    """
+    given = {name: value for name, value in (window or {}).items() if value is not None}
+    if given.get("scale"):  # checked even with no window to draw: a wrong scale is never silently ignored
+        try:
+            canonical_scale(catalog.scales, given["scale"])
+        except ElectrosieveError as error:
+            raise Unprocessable([engine_error(error, "query", {})]) from None
+    if not given.get("ph_low") and not given.get("potential_low"):
+        return None, None
+    view = ViewQuery(**given, activity=f"{activity:g}", temperature=f"{temperature:g}")
+    scenario, errors = view.scenario_in()
+    if errors:
+        raise Unprocessable(errors)
+    result = screen_result(scenario.model_copy(update={"materials": [material_id], "family": None}), catalog,
+                           where="query", rename=ENGINE_FIELD_TO_PARAM)
+    return result, urls.screen_page(view)
+
+
 def material_page_data(material_id: str, catalog: Catalog, activity: str | None, temperature: str | None,
-                       axis: str | None) -> MaterialPage:
-    """The one data object behind /materials/{id} and its .json twin."""
+                       axis: str | None, window: dict | None = None) -> MaterialPage:
+    """The one data object behind /materials/{id} and its .json twin (``window``: a screen's window to draw)."""
     material = next((m for key, m in catalog.materials.items() if key.lower() == material_id.lower()), None)
     if material is None:
         raise not_found(f"no material {material_id!r}; see {urls.materials_page()}")
@@ -113,8 +137,10 @@ def material_page_data(material_id: str, catalog: Catalog, activity: str | None,
         axis_id = canonical_scale(catalog.scales, axis or "SHE")
     except ElectrosieveError as error:
         raise Unprocessable([engine_error(error, "query", {"scale": "axis"})]) from None
+    screened, back = material_window(material.id, catalog, window, activity_value, temperature_value)
     try:
         payload, figure = diagram_view(catalog, material.element, activity_value, temperature_value, axis=axis_id,
+                                       operating_window=screened["window"]["vertices_she"] if screened else None,
                                        title=f"{material.name}: {material.element}, {temperature_value:g} °C, "
                                              f"dissolved at {activity_value:g}", onsets_of=material.id)
         onsets = onset_lines_payload(material.id, diagram(material.element, activity_value, temperature_value,
@@ -127,6 +153,10 @@ def material_page_data(material_id: str, catalog: Catalog, activity: str | None,
                                              axis=axis_id),
              "diagram_api": urls.api_diagram(material.element, activity=activity_value, temperature=temperature_value),
              "sources_api": urls.api_sources(material.element), "materials": urls.materials_page()}
+    if screened:
+        links["page"] = urls.material_page(material.id, activity=activity_value, temperature=temperature_value,
+                                           axis=axis_id, window=screened["scenario"])
+        links["screen"] = back
     return MaterialPage(material=listed, diagram=payload, figure=figure,
                         sources=sources_payload(catalog, material.element), scales=form_choices(catalog)["scales"],
                         axis=axis_id, links=links, cautions=list(CAUTIONS),

@@ -23,6 +23,7 @@ from .errors import Unprocessable, not_found
 from .models import (ErrorBody, FieldError, RankCheck, ScenarioIn, ShortlistCreate, ShortlistLinks, ShortlistPublic,
                      ShortlistRow)
 from .pages import result_citations, screen_result
+from .rankdiff import ranking_changes
 from .storage import ID_PATTERN, NOTES_TOTAL_MAX, StoredShortlist, load_shortlist, save_shortlist
 from .viewstate import ViewQuery
 
@@ -154,7 +155,7 @@ def rank_check(stored: StoredShortlist, saved_result: dict, today: dict | None, 
         message = (f"Today's catalog ({catalog.version}) would rank differently: {', '.join(order)}. "
                    f"This shortlist shows the ranking as computed with catalog {stored.catalog_version}.")
     return RankCheck(catalog_version=catalog.version, same_version=same_version, same_order=same, order=order,
-                     message=message)
+                     message=message, changes=ranking_changes(saved_result["results"], today["results"]))
 
 
 def shortlist_public(stored: StoredShortlist, catalog: Catalog) -> ShortlistPublic:

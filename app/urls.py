@@ -46,6 +46,11 @@ def screen_csv(view=None) -> str:
     return with_query("/screen.csv", _view_pairs(view))
 
 
+def screen_picture(view=None) -> str:
+    """The ranking as a picture (SVG): one strip per candidate, the operating window's fate."""
+    return with_query("/screen/picture.svg", _view_pairs(view))
+
+
 def screen_ranking(view=None) -> str:
     """The screen page's ranked pieces alone, as HTML the page's script swaps in."""
     return with_query("/screen/ranking", _view_pairs(view))
@@ -79,8 +84,32 @@ def _material_pairs(activity, temperature, axis) -> list[tuple[str, str]]:
     return pairs
 
 
-def material_page(material_id: str, *, activity=None, temperature=None, axis=None) -> str:
-    return with_query(f"/materials/{quote(material_id, safe='')}", _material_pairs(activity, temperature, axis))
+def _window_pairs(scenario) -> list[tuple[str, str]]:
+    """The operating window of a screen's scenario (its payload: ``ph``, ``potential`` as a number or a pair, ``scale``)."""
+    if not scenario:
+        return []
+    get = scenario.get if isinstance(scenario, dict) else lambda name: getattr(scenario, name)
+    pairs = []
+    for name in ("ph", "potential"):
+        value = get(name)
+        low, high = (value[0], value[1]) if isinstance(value, (list, tuple)) else (value, None)
+        pairs += [(f"{name}_low", f"{low:g}"), (f"{name}_high", "" if high is None else f"{high:g}")]
+    return pairs + [("scale", get("scale"))]
+
+
+def material_page(material_id: str, *, activity=None, temperature=None, axis=None, window=None) -> str:
+    """One material's page; ``window`` (a screen's scenario payload) keeps its operating window drawn there.
+
+    >>> material_page("Pt", axis="RHE", window={"ph": [0, 1], "potential": 1.6, "scale": "RHE"})
+    '/materials/Pt?axis=RHE&ph_low=0&ph_high=1&potential_low=1.6&potential_high=&scale=RHE'
+    """
+    return with_query(f"/materials/{quote(material_id, safe='')}",
+                      _material_pairs(activity, temperature, axis) + _window_pairs(window))
+
+
+def screen_diagram(view=None, material: str = "") -> str:
+    """The screen page's selected candidate: its diagram under the window, as HTML the page's script places."""
+    return with_query("/screen/diagram", _view_pairs(view) + ([("material", material)] if material else []))
 
 
 def material_json(material_id: str, *, activity=None, temperature=None, axis=None) -> str:

@@ -216,7 +216,7 @@ API_CASES = [
     screen("empty material list", {"ph": 7, "potential": 0, "materials": []}, "materials"),
     get("inverted pH range on the screen page's twin", "/screen.json?ph_low=3&ph_high=1&potential_low=0", 422,
         "ph_low"),
-    get("one material to compare", "/compare.json?compare=Pt&ph_low=7&potential_low=0", 422, "compare"),
+    get("no material to compare", "/compare.json?ph_low=7&potential_low=0", 422, "compare"),
     # unknown ids
     get("unknown shortlist id", "/api/v1/shortlists/AAAAAAAAAAAAAAAA", 404, "AAAAAAAAAAAAAAAA", "path"),
     get("unknown shortlist on its JSON twin", "/s/AAAAAAAAAAAAAAAA.json", 404, "AAAAAAAAAAAAAAAA", "path"),

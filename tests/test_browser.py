@@ -86,9 +86,10 @@ def test_bad_input_is_named_next_to_the_form(screen_page):
     page.fill("#ph_low", "3")
     page.fill("#ph_high", "1")
     page.press("#ph_high", "Tab")
-    page.wait_for_selector("#errors:not([hidden])")
-    assert "ph" in page.inner_text("#errors")
+    page.wait_for_selector("#error-ph_low:not([hidden])")
+    assert "inverted" in page.inner_text("#error-ph_low")
     assert page.get_attribute("#ph_low", "aria-invalid") == "true"
+    assert page.locator("#errors").is_hidden()  # said once, at the field
 
 
 def test_compare_page_draws_diagrams_switches_axis_and_downloads(screen_page):
@@ -100,7 +101,8 @@ def test_compare_page_draws_diagrams_switches_axis_and_downloads(screen_page):
     page.wait_for_selector("body[data-plots-ready='1']")
     assert page.locator(".plot .main-svg").count() >= 3
     assert "E / V vs RHE" in page.inner_text(".plot >> nth=0")
-    # hover the middle of the first plot: the label names a species and its region
+    # hover the middle of the first plot (under the side-by-side table): the label names a species and its region
+    page.locator(".plot >> nth=0").scroll_into_view_if_needed()
     box = page.locator(".plot .nsewdrag >> nth=0").bounding_box()
     page.mouse.move(box["x"] + box["width"] * 0.5, box["y"] + box["height"] * 0.5)
     page.wait_for_selector(".hoverlayer .hovertext")
@@ -116,8 +118,8 @@ def test_compare_page_draws_diagrams_switches_axis_and_downloads(screen_page):
     assert download.value.suggested_filename.endswith(".png")
     assert open(download.value.path(), "rb").read(8) == b"\x89PNG\r\n\x1a\n"
     page.select_option("#axis", "SCE")
-    page.wait_for_url(re.compile(r"axis=SCE"))
-    page.wait_for_selector("body[data-plots-ready='1']")
+    page.wait_for_selector("body[data-axis='SCE']", state="attached")  # redrawn in place
+    assert re.search(r"axis=SCE", page.url)
     assert "E / V vs SCE" in page.inner_text(".plot >> nth=0")
 
 

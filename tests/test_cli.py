@@ -1,5 +1,6 @@
 """The command line: JSON contracts, human output, and clear messages for bad input."""
 
+import itertools
 import json
 import subprocess
 import sys
@@ -7,6 +8,7 @@ import sys
 import pytest
 
 from electrosieve.app.cli import main
+from electrosieve.engine.catalog import default_catalog
 
 
 def run(capsys, *argv):
@@ -219,3 +221,31 @@ def test_point_on_a_boundary_is_the_less_noble_side(capsys):
     line = next(b for b in diagram("Zn").boundaries if {b.first.name, b.second.name} == {"Zn", "Zn^2+"})
     payload = run_json(capsys, "point", "Zn", "--ph", "3", f"--potential={line.intercept!r}")
     assert payload["region"] == "corrosion"
+
+
+@pytest.mark.parametrize("extra", [[], ["--weights", "unacceptable:1,price:0.2"], ["--rank-by", "margin,price"]])
+def test_screen_table_fits_80_columns_one_line_per_row(capsys, monkeypatch, extra):
+    monkeypatch.setenv("COLUMNS", "80")
+    code, out, err = run(capsys, "screen", "--ph", "0:1", "--potential", "1.4:1.8", "--scale", "RHE", *extra)
+    assert code == 0, err
+    lines = out.splitlines()
+    assert all(len(line) <= 80 for line in lines), max(lines, key=len)
+    rule = next(i for i, line in enumerate(lines) if line.startswith("--"))
+    heading = lines[rule - 1].split()
+    assert heading[:3] == ["#", "material", "verdict"] and heading[-1] == "reason"
+    rows = list(itertools.takewhile(bool, lines[rule + 1:]))
+    assert [int(line.split()[0]) for line in rows] == list(range(1, len(rows) + 1))  # one line per candidate
+    assert len(rows) == len(default_catalog().materials)
+    assert len(lines[rule].split()) <= 3 + 3 + 1  # rank, material, verdict, at most three figures, reason
+
+
+def test_screen_table_wide_shows_every_column_unwrapped(capsys, monkeypatch):
+    monkeypatch.setenv("COLUMNS", "80")
+    code, out, _ = run(capsys, "screen", "--ph", "7", "--potential", "0.2", "--materials", "Pt,Zn,Cr", "--wide")
+    assert code == 0
+    lines = out.splitlines()
+    rule = next(i for i, line in enumerate(lines) if line.startswith("-"))
+    assert {"margin", "USD/kg", "ΔΦ", "immu", "corr"} <= set(lines[rule - 1].split())
+    rows = lines[rule + 1:rule + 4]
+    assert sorted(line.split()[1] for line in rows) == ["Cr", "Pt", "Zn"]
+    assert not any("…" in line for line in rows)  # reasons whole, however wide the line

@@ -24,7 +24,8 @@ FORMULA_NOTES = {
 
 
 def read_csv(text: str) -> list[dict]:
-    return list(csv.DictReader(io.StringIO(text)))
+    """The table of a downloaded CSV, below its block of ``#`` lines."""
+    return list(csv.DictReader(io.StringIO("\n".join(line for line in text.splitlines() if not line.startswith("#")))))
 
 
 # --- CSV formula injection ----------------------------------------------------------------
@@ -36,6 +37,17 @@ def test_shortlist_csv_notes_are_inert_in_a_spreadsheet(client):
     rows = read_csv(client.get(f"/s/{created.json()['id']}.csv").text)
     notes = {row["material"]: row["note"] for row in rows}
     assert notes == {key: "'" + value.strip() for key, value in FORMULA_NOTES.items()}  # notes are stored stripped
+
+
+def test_shortlist_csv_header_block_splits_into_no_formula_cell(client):
+    created = client.post("/api/v1/shortlists", json={"title": "Acid,=cmd|' /C calc'!A0,+1,-2,@SUM(A1)",
+                                                       "scenario": SCENARIO})
+    assert created.status_code == 201, created.text
+    text = client.get(f"/s/{created.json()['id']}.csv").text
+    block = [line for line in text.splitlines() if line.startswith("#")]
+    assert any("cmd|" in line for line in block)
+    cells = [cell for row in csv.reader(io.StringIO("\n".join(block))) for cell in row]
+    assert not [cell for cell in cells if cell[:1] in "=+-@"], cells  # OWASP's formula-trigger characters
 
 
 def test_csv_numbers_stay_numbers_and_plain_text_is_unchanged(client):

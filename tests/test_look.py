@@ -266,7 +266,8 @@ def test_diagram_toolbar_offers_only_local_actions(page, live_server):
     assert titles and any("png" in title.lower() for title in titles)
     assert not [t for t in titles if re.search(r"cloud|studio|edit|plotly", t, re.I)], titles
     assert page.locator(".modebar a[href^='http']").count() == 0
-    # the readout names pH and volts on the plot's own scale
+    # the readout names pH and volts on the plot's own scale (the plots sit under the side-by-side table)
+    page.locator(".plot >> nth=0").scroll_into_view_if_needed()
     box = page.locator(".plot .nsewdrag >> nth=0").bounding_box()
     page.mouse.move(box["x"] + box["width"] * 0.3, box["y"] + box["height"] * 0.4)
     assert re.fullmatch(r"pH -?\d+\.\d\d · E -?\d+\.\d{3} V vs RHE", page.inner_text(".plot-readout >> nth=0"))
@@ -283,3 +284,141 @@ def test_print_hides_controls_and_keeps_the_results(page, live_server):
     for kept in ("#scenario-line", "#ranking", ".cautions li >> nth=0", "#sources-heading", "[data-print-date]"):
         assert page.locator(kept).is_visible(), kept
     assert re.search(r"\d{4}", page.inner_text("[data-print-date]"))
+
+
+def in_view(page, selector: str) -> bool:
+    """Whether the element is at least partly inside the viewport."""
+    return page.eval_on_selector(selector, """el => { const r = el.getBoundingClientRect();
+        return r.width > 0 && r.height > 0 && r.bottom > 0 && r.top < innerHeight && r.right > 0 && r.left < innerWidth; }""")
+
+
+@pytest.mark.parametrize("size", SIZES, ids=lambda s: f"{s[0]}x{s[1]}")
+def test_diagram_of_the_selected_candidate_shows_with_the_ranking(browser, live_server, size):
+    width, height = size
+    context = browser.new_context(viewport={"width": width, "height": height}, is_mobile=width < 600)
+    try:
+        page = context.new_page()
+        page.set_default_timeout(BROWSER_MS)
+        page.goto(f"{live_server.url}/?{SCENARIO}")
+        page.wait_for_selector("body[data-plots-ready='1']")
+        first = page.get_attribute("#ranking-body tr >> nth=0", "data-material")
+        assert page.get_attribute("#selected-figure", "data-material") == first
+        # click the fourth candidate's reason: its diagram replaces the first one's, with the window drawn
+        row = page.locator("#ranking-body tr >> nth=3")
+        chosen = row.get_attribute("data-material")
+        row.locator("td.reason").click()
+        page.wait_for_selector(f"body[data-selected-ready='{chosen}']")
+        assert page.get_attribute("#selected-figure", "data-material") == chosen
+        assert row.get_attribute("aria-current") == "true"
+        assert page.locator("#plot-selected .legendtext", has_text="operating window").count() == 1
+        assert in_view(page, "#plot-selected")
+        if width > 1200:  # beside the list: the row clicked and its diagram on one screen
+            assert in_view(page, "#ranking-body tr[aria-current='true']")
+        # its page keeps the scenario's window and scale
+        link = page.get_attribute("#selected-link", "href")
+        assert "ph_low=0" in link and "potential_low=1.4" in link and "scale=RHE" in link and "axis=RHE" in link
+        assert page.evaluate("() => document.documentElement.scrollWidth") <= width
+    finally:
+        context.close()
+
+
+@pytest.mark.parametrize("size", SIZES, ids=lambda s: f"{s[0]}x{s[1]}")
+def test_errors_sit_at_their_field_once_and_hide_the_stale_ranking(browser, live_server, size):
+    width, height = size
+    context = browser.new_context(viewport={"width": width, "height": height}, is_mobile=width < 600)
+    try:
+        page = context.new_page()
+        page.set_default_timeout(BROWSER_MS)
+        page.goto(f"{live_server.url}/?{SCENARIO}")
+        page.wait_for_selector("body[data-ready='1']")
+        page.fill("#potential_low", "high")
+        page.wait_for_selector("#error-potential_low:not([hidden])")
+        assert page.get_attribute("#potential_low", "aria-invalid") == "true"
+        message = page.inner_text("#error-potential_low")
+        assert "potential_low" in message
+        assert not page.locator("#errors").is_visible()  # not repeated in a list
+        assert page.locator("body").inner_text().count(message.lstrip("✕ ").strip()) == 1
+        assert not page.locator("#ranking").is_visible() and page.locator(".stale-note").is_visible()
+        assert in_view(page, "#error-potential_low")  # next to the field being typed in, on a phone too
+        page.fill("#potential_low", "1.4")
+        page.wait_for_selector("#error-potential_low[hidden]", state="attached")
+        page.wait_for_selector("#ranking-body tr")
+        assert page.get_attribute("#potential_low", "aria-invalid") is None
+        assert page.locator("#ranking").is_visible()
+    finally:
+        context.close()
+
+
+def test_compare_switches_the_axis_without_reload_and_names_every_axis(page, live_server):
+    page.set_default_timeout(BROWSER_MS)
+    page.goto(f"{live_server.url}/compare?{SCENARIO}&compare=Ir&compare=Pt&compare=Au&compare=Ti&compare=Ni")
+    page.wait_for_selector("body[data-plots-ready='1']")
+    assert page.locator("#compare-table thead th[data-material]").count() == 5
+    page.evaluate("() => { window.sameDocument = true; }")
+    page.select_option("#axis", "SCE")
+    page.wait_for_selector("body[data-axis='SCE']", state="attached")
+    assert page.evaluate("() => window.sameDocument === true")  # redrawn in place, not reloaded
+    assert "axis=SCE" in page.url
+    titles = page.eval_on_selector_all(".plot .ytitle", "nodes => nodes.map(n => n.textContent)")
+    assert len(titles) == 5 and all(t == "E / V vs SCE" for t in titles), titles
+    assert page.eval_on_selector_all(".plot .xtitle", "nodes => nodes.map(n => n.textContent)") == ["pH"] * 5
+    assert page.locator(".plot-readout").count() == 5  # one readout per plot, however often redrawn
+    assert all("axis=SCE" in href for href in page.eval_on_selector_all(
+        "a[data-material-link]", "links => links.map(a => a.getAttribute('href'))"))
+
+
+def test_screen_says_inline_when_the_ticks_are_too_many_to_compare(screen_ticks_page):
+    page = screen_ticks_page
+    boxes = page.locator("#ranking-body input[name=compare]")
+    for index in range(3, 7):
+        boxes.nth(index).check()
+    assert "untick 1" in page.inner_text("#compare-count")
+    assert page.get_attribute("#compare-button", "aria-disabled") == "true"
+    boxes.nth(6).uncheck()
+    assert "6 ticked" in page.inner_text("#compare-count")
+
+
+@pytest.fixture()
+def screen_ticks_page(page, live_server):
+    page.set_default_timeout(BROWSER_MS)
+    page.goto(f"{live_server.url}/?{SCENARIO}")
+    page.wait_for_selector("body[data-ready='1']")
+    return page
+
+
+def test_shortlist_copy_link_copies_its_address(browser, live_server, shortlist_path):
+    context = browser.new_context(viewport={"width": 1366, "height": 768})
+    try:
+        context.grant_permissions(["clipboard-read", "clipboard-write"], origin=live_server.url)
+        page = context.new_page()
+        page.set_default_timeout(BROWSER_MS)
+        page.goto(live_server.url + shortlist_path)
+        page.click("#copy-link")
+        page.wait_for_selector("body[data-copied]", state="attached")
+        assert page.evaluate("() => navigator.clipboard.readText()") == live_server.url + shortlist_path
+        assert page.inner_text("#copy-status") == "Link copied."
+        # the date in words, the exact moment on hover and for machines
+        saved = page.locator("#saved-at")
+        assert re.fullmatch(r"\d{4}-\d\d-\d\dT\d\d:\d\d:\d\d[+-]\d\d:\d\d", saved.get_attribute("datetime"))
+        assert saved.get_attribute("title") == saved.get_attribute("datetime")
+        assert re.fullmatch(r"\d{1,2} [A-Z][a-z]{2} \d{4}, \d\d:\d\d UTC", saved.inner_text())
+    finally:
+        context.close()
+
+
+@pytest.mark.parametrize("size", SIZES, ids=lambda s: f"{s[0]}x{s[1]}")
+def test_ranking_picture_opens_within_the_page_width(browser, live_server, size):
+    width, height = size
+    context = browser.new_context(viewport={"width": width, "height": height}, is_mobile=width < 600)
+    try:
+        page = context.new_page()
+        page.set_default_timeout(BROWSER_MS)
+        page.goto(f"{live_server.url}/?{SCENARIO}")
+        page.wait_for_selector("body[data-ready='1']")
+        page.click("#picture-box summary")
+        page.wait_for_function("() => document.getElementById('ranking-picture').naturalWidth > 0")
+        assert page.eval_on_selector("#ranking-picture", "img => img.getBoundingClientRect().right") <= width
+        assert page.evaluate("() => document.documentElement.scrollWidth") <= width
+        assert page.get_attribute("#picture-svg", "href").startswith("/screen/picture.svg?")
+    finally:
+        context.close()

@@ -171,7 +171,13 @@ def test_bad_query_names_the_parameter(client, query, field):
         as_json.json()
     as_html = client.get(f"/?{query}")
     assert as_html.status_code == 422
-    assert f'data-field="{field}"' in as_html.text
+    # the message sits at its field, once: not repeated in the box above the results
+    messages = re.findall(r'<p class="field-error" id="[^"]+" data-error-for="([^"]+)" role="alert" >([^<]+)</p>', as_html.text)
+    assert any(field in names.split() and field in text for names, text in messages), messages
+    assert f'data-field="{field}"' not in as_html.text
+    assert re.search(rf'name="{field}"[^>]*aria-invalid="true"', as_html.text)
+    for _, text in messages:
+        assert as_html.text.count(text.strip()) == 1
 
 
 def test_screen_csv(client):
@@ -191,7 +197,15 @@ def test_ranked_table_shows_every_column_and_the_rule(client):
                     "log₁₀ dissolved", "Margin mV", "Hazards", "USD/kg", "Reason"):
         assert heading in text, heading
     assert text.index('id="rule-text"') < text.index('id="ranking"')
-    assert 'href="/materials/Pt?activity=1e-06&amp;temperature=25"' in text
+    # a material's link keeps the scenario: its window and scale, drawn on that page, with the way back
+    link = html.unescape(re.search(r'href="(/materials/Pt\?[^"]*)"', text).group(1))
+    assert link == ("/materials/Pt?activity=1e-06&temperature=25&axis=SHE&ph_low=0&ph_high=1&potential_low=-0.2"
+                    "&potential_high=0&scale=SHE")
+    material = client.get(link.replace("/materials/Pt?", "/materials/Pt.json?")).json()
+    window = next(trace for trace in material["figure"]["data"] if trace.get("name") == "operating window")
+    assert sorted(set(window["x"])) == [0, 1] and sorted(set(window["y"])) == [-0.2, 0]
+    assert material["links"]["screen"].startswith("/?ph_low=0&ph_high=1&potential_low=-0.2&potential_high=0&scale=SHE")
+    assert 'id="back-to-ranking"' in client.get(link).text
 
 
 def test_hazards_are_in_plain_words(client):
@@ -245,13 +259,32 @@ def test_compare_page_draws_two_to_four_diagrams_with_fills_and_labels(client):
     assert urls.plotly_js() in html
 
 
-@pytest.mark.parametrize("compare", ["compare=Pt", "compare=Pt&compare=Zn&compare=Cu&compare=Au&compare=Ni",
-                                     "compare=Pt&compare=Unobtainium"])
-def test_compare_needs_two_to_four_known_materials(client, compare):
+SEVEN = "&".join(f"compare={m}" for m in ("Pt", "Zn", "Cu", "Au", "Ni", "Ir", "Ti"))
+
+
+@pytest.mark.parametrize("compare, words", [("", "tick at least one"), (SEVEN, "given 7); untick 1"),
+                                            ("compare=Pt&compare=Unobtainium", "Unobtainium")])
+def test_compare_needs_one_to_six_known_materials(client, compare, words):
     response = client.get(f"/compare.json?{SCENARIO_QUERY}&{compare}")
     assert response.status_code == 422
     assert response.json()["detail"][0]["loc"] == ["query", "compare"]
-    assert client.get(f"/compare?{SCENARIO_QUERY}&{compare}").status_code == 422
+    assert words in response.json()["detail"][0]["msg"]
+    page = client.get(f"/compare?{SCENARIO_QUERY}&{compare}")
+    assert page.status_code == 422 and html.escape(words, quote=False) in page.text
+
+
+@pytest.mark.parametrize("count", [1, 6])
+def test_compare_takes_one_to_six_with_a_column_of_figures_each(client, count):
+    ids = ["Pt", "Zn", "Cu", "Au", "Ni", "Ir"][:count]
+    query = SCENARIO_QUERY + "".join(f"&compare={m}" for m in ids)
+    data = client.get(f"/compare.json?{query}").json()
+    assert [d["material"] for d in data["diagrams"]] == ids
+    text = client.get(f"/compare?{query}").text
+    table = re.search(r'<table id="compare-table".*?</table>', text, flags=re.S).group(0)
+    assert re.findall(r'<th scope="col" data-material="(\w+)"', table) == ids
+    for label in ("Verdict", "Immunity", "Passivation", "Corrosion", "Instability", "dissolved", "Margin", "USD/kg",
+                  "Hazards"):
+        assert label in table, label
 
 
 def test_rhe_window_is_a_slanted_band_on_the_she_axis(client):
@@ -326,20 +359,39 @@ def test_shortlist_notice_when_todays_catalog_ranks_differently(client):
     storage = client.app.state.electrosieve.storage
     result = client.post("/api/v1/screen", json={"ph": [0, 1], "potential": [-0.2, 0.0], "role": "cathode",
                                                  "materials": ["Pt", "Zn", "Cu"]}).json()
-    swapped = {**result, "catalog_version": "older", "results": list(reversed(result["results"]))}
+    swapped = {**result, "catalog_version": "older",
+               "results": [{**row, "rank": i + 1} for i, row in enumerate(reversed(result["results"]))]}
     stored = save_shortlist(engine=storage, title="computed with older data", scenario=result["scenario"],
                             result=compact_record(swapped), notes={})
     page = client.get(f"/s/{stored.id}.json").json()
     assert page["today"]["same_order"] is False and page["today"]["same_version"] is False
     assert "would rank differently" in page["today"]["message"]
     assert "would rank differently" in client.get(f"/s/{stored.id}").text
+    # the difference, row by row: saved reversed, so today's first moved up by n-1 and today's last down by n-1
+    n = len(result["results"])
+    changes = {c["material"]: c for c in page["today"]["changes"]}
+    first, last = result["results"][0], result["results"][-1]
+    assert changes[first["material"]]["moved"] == n - 1 and changes[first["material"]]["rank_before"] == n
+    assert changes[last["material"]]["moved"] == -(n - 1)
+    assert changes[first["material"]]["reason"] == first["reason"]
+    assert f"moved up {n - 1}</span>" in client.get(f"/s/{stored.id}").text
 
 
 def test_shortlist_csv_has_the_notes(client, shortlist_id):
     response = client.get(f"/s/{shortlist_id}.csv")
     assert response.status_code == 200 and response.headers["content-type"].startswith("text/csv")
-    rows = {row["material"]: row for row in csv.DictReader(io.StringIO(response.text))}
+    lines = response.text.splitlines()
+    block = [line for line in lines if line.startswith("#")]
+    assert lines[:len(block)] == block  # the header block comes first, then the table
+    facts = dict(line[2:].split(": ", 1) for line in block)
+    page = client.get(f"/s/{shortlist_id}.json").json()
+    assert facts["electrosieve shortlist"] == page["title"] and facts["saved"] == page["created_at"]
+    assert facts["catalog version"].startswith(page["catalog_version"])
+    assert facts["scenario"].startswith(f"{page['scenario']['role']} at pH ")
+    rows = {row["material"]: row for row in csv.DictReader(io.StringIO("\n".join(lines[len(block):])))}
     assert rows["Cu"]["note"] == "cheap & cheerful" and rows["Zn"]["note"] == ""
+    disposition = response.headers["content-disposition"]
+    assert re.fullmatch(r'attachment; filename="electrosieve-shortlist-[a-z0-9-]+-\d{4}-\d{2}-\d{2}\.csv"', disposition)
 
 
 def test_unknown_shortlist_pages_are_404(client):
@@ -400,7 +452,7 @@ def test_the_ranking_fragment_is_the_page_own_rows(client):
     page = client.get(f"/?{SCENARIO_QUERY}&pick=names&materials=Pt&materials=Zn&materials=Cr")
     fragment = client.get(f"/screen/ranking?{SCENARIO_QUERY}&pick=names&materials=Pt&materials=Zn&materials=Cr")
     assert fragment.status_code == 200 and "<html" not in fragment.text
-    rows = re.findall(r'<tr data-material="(\w+)">(.*?)</tr>', fragment.text, flags=re.S)
+    rows = re.findall(r'<tr data-material="(\w+)"[^>]*>(.*?)</tr>', fragment.text, flags=re.S)
     assert sorted(material for material, _ in rows) == ["Cr", "Pt", "Zn"]
     for material, cells in rows:
         assert cells in page.text, material
@@ -412,3 +464,22 @@ def test_the_ranking_fragment_names_a_bad_parameter(client):
     fragment = client.get("/screen/ranking?ph_low=3&ph_high=1&potential_low=0")
     assert fragment.status_code == 422
     assert '<li data-field="ph_low">' in fragment.text and "inverted" in fragment.text
+
+
+def test_ranking_picture_is_one_strip_per_candidate_filling_the_window(client):
+    from xml.etree import ElementTree
+
+    response = client.get(f"/screen/picture.svg?{SCENARIO_QUERY}")
+    assert response.status_code == 200 and response.headers["content-type"].startswith("image/svg+xml")
+    assert re.fullmatch(r'inline; filename="electrosieve-ranking-cathode-\d{4}-\d\d-\d\d\.svg"',
+                        response.headers["content-disposition"])
+    svg = ElementTree.fromstring(response.text)
+    ns = {"s": "http://www.w3.org/2000/svg"}
+    rows = svg.findall("s:g[@data-material]", ns)
+    ranked = client.get(f"/screen.json?{SCENARIO_QUERY}").json()["result"]["results"]
+    assert [g.get("data-material") for g in rows] == [row["material"] for row in ranked]
+    for g, row in zip(rows, ranked):
+        widths = [float(rect.get("width")) for rect in g.findall("s:rect", ns)]
+        assert sum(widths) == pytest.approx(360, abs=0.05)  # the shares cover the whole window
+        assert row["verdict"] in "".join(g.itertext())  # the verdict in words, not colour alone
+    assert client.get("/screen/picture.svg?ph_low=3&ph_high=1&potential_low=0").status_code == 422

@@ -18,6 +18,7 @@ from electrosieve.engine.catalog import Catalog, default_catalog, load_catalog
 from .. import urls
 from ..cautions import CAUTIONS
 from ..csvcells import write_csv
+from ..filenames import human_date
 from ..models import ErrorBody
 from ..payloads import CSV_COLUMNS, csv_rows
 from ..settings import Settings
@@ -100,6 +101,7 @@ def _environment() -> Environment:
                       trim_blocks=True, lstrip_blocks=True)
     env.globals["urls"] = urls
     env.filters["fmt"] = number_text
+    env.filters["human_date"] = human_date
     env.filters["percent"] = lambda value: number_text(None if value is None else 100 * value, ".0f")
     return env
 
@@ -123,9 +125,11 @@ def render(request: Request, template: str, context: dict, *, status_code: int =
     }, status_code=status_code)
 
 
-def csv_response(result: dict, filename: str, notes: dict | None = None) -> Response:
-    """The ranked rows as CSV (``app.payloads.csv_rows``), with a ``note`` column when notes are given."""
+def csv_response(result: dict, filename: str, notes: dict | None = None, preamble: list[str] = ()) -> Response:
+    """The ranked rows as CSV (``app.payloads.csv_rows``), with a ``note`` column when notes are given and the
+    ``preamble`` lines (``app.csvheader``) above the header."""
     stream = io.StringIO()
+    stream.writelines(f"{line}\n" for line in preamble)
     columns = list(CSV_COLUMNS) + (["note"] if notes is not None else [])
     rows = csv_rows(result)
     for row in rows if notes is not None else ():

@@ -1,4 +1,4 @@
-"""The compare page: two to four candidates' diagrams side by side under one operating window."""
+"""The compare page: one to six candidates' diagrams and figures side by side under one operating window."""
 
 from fastapi import APIRouter, Depends, Query, Request
 from fastapi.responses import HTMLResponse
@@ -14,7 +14,7 @@ from .common import ERROR_RESPONSES, HTML_RESPONSES, get_catalog, render, view_q
 router = APIRouter(tags=["pages"])
 
 def compare_view(view: ViewQuery = Depends(view_query),
-                 compare: list[str] = Query([], description="material ids to compare (2 to 4; repeat)"),
+                 compare: list[str] = Query([], description="material ids to compare (1 to 6; repeat)"),
                  axis: str | None = Query(None, max_length=40, description="reference scale of the plots' potential axis")
                  ) -> ViewQuery:
     """Dependency: the view plus the compared materials and the axis scale."""
@@ -22,7 +22,7 @@ def compare_view(view: ViewQuery = Depends(view_query),
 
 
 @router.get("/compare", response_class=HTMLResponse, response_model=None, responses=HTML_RESPONSES,
-            summary="Compare page: 2 to 4 diagrams side by side")
+            summary="Compare page: 1 to 6 candidates' diagrams and figures side by side")
 def compare_html(request: Request, view: ViewQuery = Depends(compare_view), catalog: Catalog = Depends(get_catalog)):
     page = compare_page_data(view, catalog)
     return render(request, "compare.html", {"page": page, "view": view}, json_twin=page.links["json_twin"],

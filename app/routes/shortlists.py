@@ -1,5 +1,7 @@
 """Saved shortlists: the read-only page /s/{id}, its JSON twin and CSV, and the screen page's save form."""
 
+from datetime import datetime, timezone
+
 from fastapi import APIRouter, Depends, Request
 from fastapi.concurrency import run_in_threadpool
 from fastapi.responses import HTMLResponse, RedirectResponse, Response
@@ -8,6 +10,8 @@ from pydantic import ValidationError
 from electrosieve.engine.catalog import Catalog
 
 from .. import urls
+from ..csvheader import csv_preamble, scenario_text
+from ..filenames import download_name
 from ..errors import Unprocessable
 from ..models import ShortlistCreate, ShortlistPublic
 from ..shortlists import SAVE_REFUSALS, create_shortlist, find_shortlist, saved_result, shortlist_public
@@ -31,7 +35,15 @@ def shortlist_json(shortlist_id: str, catalog: Catalog = Depends(get_catalog), s
             summary="A shortlist's ranked candidates as CSV, with the notes")
 def shortlist_csv(shortlist_id: str, catalog: Catalog = Depends(get_catalog), storage=Depends(get_storage)) -> Response:
     stored = find_shortlist(shortlist_id, storage)
-    return csv_response(saved_result(stored, catalog), f"electrosieve-shortlist-{stored.id}.csv", notes=stored.notes)
+    result = saved_result(stored, catalog)
+    preamble = csv_preamble([
+        ("electrosieve shortlist", stored.title), ("link", urls.shortlist_page(stored.id)),
+        ("scenario", scenario_text(stored.scenario)), ("rule", result["rule"]),
+        ("catalog version", f"{stored.catalog_version} (today: {catalog.version})"),
+        ("saved", stored.created_at), ("downloaded", datetime.now(timezone.utc).isoformat(timespec="seconds")),
+    ])
+    return csv_response(result, download_name("electrosieve-shortlist", stored.title, stored.created_at, "csv"),
+                        notes=stored.notes, preamble=preamble)
 
 
 @router.get("/s/{shortlist_id}", response_class=HTMLResponse, response_model=None, responses=HTML_RESPONSES,

@@ -16,6 +16,7 @@
 
   /* a readout under the plot: where the pointer is, in pH and in volts on the plot's own scale */
   function readout(plot) {
+    if (plot.nextElementSibling && plot.nextElementSibling.classList.contains("plot-readout")) { return; }  // redrawn
     var line = document.createElement("p");
     line.className = "plot-readout";
     line.setAttribute("aria-live", "off");
@@ -45,6 +46,9 @@
     });
     return window.Plotly.newPlot(plot, figure.data, layout, config).then(readout);
   }
+
+  /* a page script that places a server-built figure later (the screen page's selected candidate) draws it here */
+  window.electrosievePlots = { draw: draw };
 
   var plots = Array.prototype.slice.call(document.querySelectorAll(".plot[data-figure]"));
   Promise.all(plots.map(draw)).then(function () {

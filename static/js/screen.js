@@ -11,11 +11,14 @@
   var statusLine = document.getElementById("screen-status");
   var saveForm = document.getElementById("save-form");
   var saveStatus = document.getElementById("save-status");
+  var results = document.getElementById("results");
   var sequence = 0;
   var timer = null;
+  var inflight = null;  // the AbortController of the request still on its way, if any
+  var QUIET_MS = 60;    // wait this long after the last keystroke, so a typed number is sent once
 
   /* the pieces GET /screen/ranking renders, each with the id the page gives it */
-  var PIECES = ["errors", "scenario-line", "rule-text", "conditions-text", "temperature-notes", "gas-notes",
+  var PIECES = ["scenario-line", "rule-text", "conditions-text", "temperature-notes", "gas-notes",
                 "row-count", "ranking-body", "notes", "electrolyte-readout", "warnings"];
 
   /* ---- the view state: form -> query string ---- */
@@ -46,12 +49,31 @@
     });
   }
 
-  function markInvalid() {
+  /* each message goes to its field (aria-invalid plus the message element after it), shown once; a message
+     whose field is not on the form stays in the box above the results */
+  function placeErrors(fragment) {
     form.querySelectorAll("[aria-invalid]").forEach(function (input) { input.removeAttribute("aria-invalid"); });
-    document.querySelectorAll("#error-list li[data-field]").forEach(function (item) {
-      var input = form.querySelector("[name='" + item.dataset.field + "']");
-      if (input) { input.setAttribute("aria-invalid", "true"); }
+    form.querySelectorAll(".field-error").forEach(function (line) { line.textContent = ""; line.hidden = true; });
+    var box = document.getElementById("errors");
+    var list = document.getElementById("error-list");
+    list.textContent = "";
+    var items = fragment ? fragment.querySelectorAll("#error-list li") : [];
+    Array.prototype.forEach.call(items, function (item) {
+      var field = item.dataset.field;
+      var line = field ? form.querySelector(".field-error[data-error-for~='" + field + "']") : null;
+      var inputs = field ? form.querySelectorAll("[name='" + field + "']") : [];
+      inputs.forEach(function (input) { input.setAttribute("aria-invalid", "true"); });
+      if (line) {
+        line.textContent = (line.textContent ? line.textContent + " " : "") + item.textContent.trim();
+        line.hidden = false;
+        var fold = line.closest("details");
+        if (fold) { fold.open = true; }
+      } else {
+        list.appendChild(document.importNode(item, true));
+      }
     });
+    box.hidden = list.children.length === 0;
+    results.dataset.stale = items.length ? "1" : "0";
   }
 
   /* the view state the server does not know: which rows are ticked for comparison, the notes typed so far */
@@ -71,6 +93,8 @@
     var suffix = query ? "?" + query : "";
     history.replaceState(null, "", form.dataset.page + suffix);
     document.getElementById("csv-link").href = form.dataset.csv + suffix;
+    document.getElementById("picture-svg").href = document.getElementById("picture-frame").dataset.picture + suffix;
+    if (document.getElementById("picture-box").open) { showPicture(); }
     document.getElementById("json-link").href = form.dataset.json + suffix;
     var twin = document.querySelector("link[rel=alternate][type='application/json']");
     if (twin) { twin.href = form.dataset.json + suffix; }
@@ -85,14 +109,31 @@
     });
   }
 
+  /* the picture of the ranking, for the scenario now in the form (made when first wanted) */
+  function showPicture() {
+    var picture = document.getElementById("ranking-picture");
+    if (!picture) {
+      picture = el("img");
+      picture.id = "ranking-picture";
+      picture.alt = "For each ranked candidate, a strip of the operating window split by stable phase, with its verdict in words";
+      document.getElementById("picture-frame").appendChild(picture);
+    }
+    var wanted = document.getElementById("picture-svg").href;
+    if (picture.src !== wanted) { picture.src = wanted; }
+  }
+
   /* ---- running the screen ---- */
   function rerun() {
     var query = viewParams().toString();
     updateLinks(query);
     var mine = ++sequence;
+    if (inflight) { inflight.abort(); }  // a newer scenario makes the older answer useless
+    var controller = window.AbortController ? new AbortController() : null;
+    inflight = controller;
     body.dataset.busy = "1";
     statusLine.textContent = "Screening\u2026";
-    return fetch(form.dataset.ranking + (query ? "?" + query : ""), { headers: { "Accept": "text/html" } })
+    return fetch(form.dataset.ranking + (query ? "?" + query : ""),
+                 { headers: { "Accept": "text/html" }, signal: controller ? controller.signal : undefined })
       .then(function (response) {
         return response.text().then(function (text) { return { ok: response.ok, text: text }; });
       }).then(function (answer) {
@@ -101,15 +142,17 @@
         if (answer.ok) {
           keepTicksAndNotes(function () { place(fragment, PIECES); });
           statusLine.textContent = "Ranked " + document.getElementById("row-count").textContent + " candidates.";
+          document.dispatchEvent(new CustomEvent("electrosieve:ranked"));
         } else {
-          place(fragment, ["errors"]);
-          statusLine.textContent = "Not ranked: see the messages above.";
+          statusLine.textContent = "Not ranked: the ranking below is hidden until the marked fields are valid.";
         }
-        markInvalid();
+        placeErrors(fragment);
       }).catch(function (error) {
+        if (error && error.name === "AbortError") { return; }
         if (mine === sequence) { statusLine.textContent = "Could not reach the server: " + error; }
       }).then(function () {
         if (mine === sequence) {
+          inflight = null;
           body.dataset.busy = "0";
           body.dataset.updates = String(Number(body.dataset.updates || "0") + 1);
         }
@@ -118,11 +161,30 @@
 
   function soon() {
     clearTimeout(timer);
-    timer = setTimeout(rerun, 350);
+    timer = setTimeout(rerun, QUIET_MS);
   }
 
+  /* the compare button says at once when the ticks are outside 1 to 6 (the compare page would say it too) */
+  var compareCount = document.getElementById("compare-count");
+  function countTicks() {
+    var ticked = document.querySelectorAll("#ranking-body input[name=compare]:checked").length;
+    var low = Number(compareCount.dataset.low), high = Number(compareCount.dataset.high);
+    var fine = ticked >= low && ticked <= high;
+    compareCount.textContent = fine ? ticked + " ticked (1 to 6)" :
+      (ticked > high ? ticked + " ticked: untick " + (ticked - high) + " (at most " + high + ")" : "tick at least one");
+    compareCount.classList.toggle("field-error", !fine);
+    document.getElementById("compare-button").setAttribute("aria-disabled", fine ? "false" : "true");
+    return fine;
+  }
+  document.getElementById("compare-button").addEventListener("click", function (event) {
+    if (!countTicks()) { event.preventDefault(); }
+  });
+  document.addEventListener("electrosieve:ranked", countTicks);
+  document.getElementById("ranking").addEventListener("change", countTicks);
+  countTicks();
+
   form.addEventListener("change", function (event) {
-    if (event.target && event.target.name === "compare") { return; }
+    if (event.target && event.target.name === "compare") { countTicks(); return; }
     clearTimeout(timer);
     rerun();
   });
@@ -135,6 +197,103 @@
     event.preventDefault();
     clearTimeout(timer);
     rerun();
+  });
+
+  /* ---- the selected candidate's diagram beside (laptop) or under (phone) the ranking ---- */
+  var selectedMaterial = (document.querySelector("#ranking-body tr.is-selected") || {}).dataset;
+  selectedMaterial = selectedMaterial ? selectedMaterial.material : null;
+  var figureRequest = null;
+
+  function markSelected() {
+    var rows = document.querySelectorAll("#ranking-body tr[data-material]");
+    var found = false;
+    rows.forEach(function (row) {
+      var on = row.dataset.material === selectedMaterial;
+      found = found || on;
+      row.classList.toggle("is-selected", on);
+      if (on) { row.setAttribute("aria-current", "true"); } else { row.removeAttribute("aria-current"); }
+    });
+    if (!found && rows.length) {  // the chosen candidate left the ranking: show the first one
+      selectedMaterial = rows[0].dataset.material;
+      rows[0].classList.add("is-selected");
+      rows[0].setAttribute("aria-current", "true");
+    }
+  }
+
+  function showSelected() {
+    if (!selectedMaterial) { return Promise.resolve(); }
+    if (figureRequest) { figureRequest.abort(); }
+    var controller = window.AbortController ? new AbortController() : null;
+    figureRequest = controller;
+    var params = viewParams();
+    params.set("material", selectedMaterial);
+    return fetch(form.dataset.diagram + "?" + params.toString(),
+          { headers: { "Accept": "text/html" }, signal: controller ? controller.signal : undefined })
+      .then(function (response) { return response.text(); })
+      .then(function (text) {
+        var fragment = new DOMParser().parseFromString(text, "text/html");
+        place(fragment, ["selected-figure"]);
+        var plot = document.getElementById("plot-selected");
+        if (plot && window.electrosievePlots) { return window.electrosievePlots.draw(plot); }
+        return null;
+      }).then(function () {
+        document.body.dataset.selectedReady = selectedMaterial;
+      }).catch(function (error) {
+        if (!error || error.name !== "AbortError") { statusLine.textContent = "Could not draw the diagram: " + error; }
+      });
+  }
+
+  /* where the diagram is not beside the list (a phone), bring it into view once the new one is drawn */
+  var stacked = window.matchMedia ? window.matchMedia("(max-width: 74.99rem)") : { matches: false };
+
+  function choose(row) {
+    if (!row || !row.dataset.material) { return; }
+    selectedMaterial = row.dataset.material;
+    markSelected();
+    showSelected().then(function () {
+      if (stacked.matches) { document.getElementById("selected-figure").scrollIntoView({ block: "start" }); }
+    });
+  }
+
+  var rankingTable = document.getElementById("ranking");
+  rankingTable.addEventListener("click", function (event) {
+    if (event.target.closest("a, input, label, button")) { return; }  // links and ticks keep their own meaning
+    choose(event.target.closest("tr[data-material]"));
+  });
+  rankingTable.addEventListener("keydown", function (event) {
+    if ((event.key === "Enter" || event.key === " ") && event.target.matches("tr[data-material]")) {
+      event.preventDefault();
+      choose(event.target);
+    }
+  });
+  document.addEventListener("electrosieve:ranked", function () { markSelected(); showSelected(); });
+
+  /* ---- the picture of the ranking: drawn by the server as SVG; PNG made here, in the browser ---- */
+  var pictureBox = document.getElementById("picture-box");
+  pictureBox.addEventListener("toggle", function () { if (pictureBox.open) { showPicture(); } });
+  document.getElementById("picture-png").addEventListener("click", function () {
+    var source = document.getElementById("picture-svg").href;
+    fetch(source).then(function (response) { return response.text(); }).then(function (text) {
+      var image = new Image();
+      var blobUrl = URL.createObjectURL(new Blob([text], { type: "image/svg+xml" }));
+      image.onload = function () {
+        var canvas = document.createElement("canvas");
+        canvas.width = image.width * 2; canvas.height = image.height * 2;  // sharp on paper and high-density screens
+        var context = canvas.getContext("2d");
+        context.scale(2, 2);
+        context.drawImage(image, 0, 0);
+        URL.revokeObjectURL(blobUrl);
+        canvas.toBlob(function (blob) {
+          var link = el("a");
+          link.href = URL.createObjectURL(blob);
+          link.download = "electrosieve-ranking.png";
+          document.body.appendChild(link);
+          link.click();
+          link.remove();
+        }, "image/png");
+      };
+      image.src = blobUrl;
+    });
   });
 
   /* ---- saving a shortlist ---- */
